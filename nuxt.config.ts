@@ -1,0 +1,45 @@
+// Thermotome: Nuxt 4 with the source at the repository root (see DEVELOPERS.md).
+export default defineNuxtConfig({
+  compatibilityDate: '2025-07-15',
+  // Nuxt 4 silently switches to app/ when such a folder appears; pin the root.
+  srcDir: '.',
+  dir: { app: '.' },
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils'],
+  css: [
+    '@fontsource/atkinson-hyperlegible/400.css',
+    '@fontsource/atkinson-hyperlegible/400-italic.css',
+    '@fontsource/atkinson-hyperlegible/700.css',
+    '~/assets/css/main.css',
+  ],
+  app: {
+    head: {
+      htmlAttrs: { lang: 'en' },
+      title: 'Thermotome',
+      meta: [
+        { name: 'viewport', content: 'width=device-width, initial-scale=1' },
+        { name: 'description', content: 'Signed notebook records of thermal-population calculations' },
+      ],
+    },
+  },
+  runtimeConfig: {
+    // DATABASE_URL is read directly in server/utils/db.ts so that scripts share it.
+    demoMode: process.env.THERMOTOME_DEMO === '1',
+    session: {
+      maxAge: 60 * 60 * 8, // eight hours, then sign in again
+      cookie: { sameSite: 'lax' },
+    },
+    public: {
+      demoMode: process.env.THERMOTOME_DEMO === '1',
+    },
+  },
+  nitro: {
+    serverAssets: [
+      { baseName: 'fonts', dir: '../node_modules/@fontsource/atkinson-hyperlegible/files' },
+      { baseName: 'migrations', dir: './database/migrations' },
+    ],
+  },
+  tailwindcss: { cssPath: false, viewer: false },
+  typescript: { strict: true },
+})
