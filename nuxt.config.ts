@@ -3,7 +3,6 @@ export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   // Nuxt 4 silently switches to app/ when such a folder appears; pin the root.
   srcDir: '.',
-  dir: { app: '.' },
   devtools: { enabled: false },
   telemetry: false,
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils'],
