@@ -1,0 +1,11 @@
+// The session carries only public facts; the server re-reads roles from the database.
+declare module '#auth-utils' {
+  interface User {
+    id: string
+    email: string
+    name: string
+    roles: ('scientist' | 'witness' | 'compliance' | 'admin')[]
+  }
+}
+
+export {}

@@ -1,0 +1,4 @@
+export default defineEventHandler(async (event) => {
+  const person = await requirePerson(event)
+  return { person }
+})

@@ -1,0 +1,21 @@
+import { eq } from 'drizzle-orm'
+import { z } from 'zod'
+import { uuidSchema } from '#shared/schemas/notebooks'
+import { notebooks, people } from '../../database/schema'
+
+const paramsSchema = z.object({ id: uuidSchema })
+
+export default defineEventHandler(async (event) => {
+  const person = await requirePerson(event)
+  const { id } = await validParams(event, paramsSchema)
+  const entry = await readableEntry(person, id)
+  const database = useDatabase()
+  const [author] = await database.select({ id: people.id, name: people.name, email: people.email }).from(people).where(eq(people.id, entry.authorId))
+  const [notebook] = await database.select({ id: notebooks.id, name: notebooks.name }).from(notebooks).where(eq(notebooks.id, entry.notebookId))
+  return {
+    entry,
+    author,
+    notebook,
+    canEdit: entry.authorId === person.id && entry.state === 'draft' && person.roles.includes('scientist'),
+  }
+})

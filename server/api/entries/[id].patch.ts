@@ -1,0 +1,43 @@
+import { and, eq, sql } from 'drizzle-orm'
+import { z } from 'zod'
+import { updateEntrySchema } from '#shared/schemas/entries'
+import { uuidSchema } from '#shared/schemas/notebooks'
+import { entries } from '../../database/schema'
+
+const paramsSchema = z.object({ id: uuidSchema })
+
+export default defineEventHandler(async (event) => {
+  const person = await requireRole(event, 'scientist')
+  const { id } = await validParams(event, paramsSchema)
+  const body = await validBody(event, updateEntrySchema)
+  const entry = await readableEntry(person, id)
+  if (entry.authorId !== person.id)
+    throw createError({ statusCode: 403, message: 'Only the author edits an entry.' })
+  if (entry.state !== 'draft')
+    throw createError({ statusCode: 409, message: 'This version is signed and locked. Amend it to make changes.' })
+
+  const database = useDatabase()
+  const updated = await database.transaction(async (tx) => {
+    const [row] = await tx.update(entries).set({
+      ...(body.title !== undefined ? { title: body.title } : {}),
+      ...(body.content !== undefined ? { content: body.content } : {}),
+      lockVersion: sql`${entries.lockVersion} + 1`,
+      updatedAt: new Date(),
+    }).where(and(eq(entries.id, id), eq(entries.lockVersion, body.lockVersion), eq(entries.state, 'draft'))).returning()
+    if (!row)
+      return undefined
+    await recordAudit(database, {
+      action: 'entry_saved', actorId: person.id, actorEmail: person.email, subjectType: 'entry', subjectId: id,
+      details: { lockVersion: row.lockVersion, titleChanged: body.title !== undefined && body.title !== entry.title },
+    }, tx)
+    return row
+  })
+  if (!updated) {
+    throw createError({
+      statusCode: 409,
+      message: 'Someone else changed this entry since you opened it. Reload to see their version.',
+      data: { currentLockVersion: entry.lockVersion },
+    })
+  }
+  return { entry: updated }
+})

@@ -1,0 +1,87 @@
+import { asc, desc, gt, sql } from 'drizzle-orm'
+import type { H3Event } from 'h3'
+import { auditEvents, type AuditEvent } from '../database/schema'
+import { auditRowHash, GENESIS_HASH } from '../database/audit-chain'
+import type { Database } from './db'
+
+const AUDIT_LOCK = 874202
+
+export interface AuditInput {
+  action: string
+  actorId?: string | null
+  actorEmail?: string | null
+  subjectType?: string | null
+  subjectId?: string | null
+  details?: Record<string, unknown>
+}
+
+type Executor = Pick<Database, 'execute' | 'select' | 'insert'>
+
+async function appendInTransaction(tx: Executor, input: AuditInput): Promise<AuditEvent> {
+  // One writer at a time extends the chain, whichever app server it runs on.
+  await tx.execute(sql`SELECT pg_advisory_xact_lock(${AUDIT_LOCK})`)
+  const [last] = await tx.select({ hash: auditEvents.hash }).from(auditEvents)
+    .orderBy(desc(auditEvents.sequence)).limit(1)
+  const row = {
+    occurredAt: new Date(),
+    actorId: input.actorId ?? null,
+    actorEmail: input.actorEmail ?? null,
+    action: input.action,
+    subjectType: input.subjectType ?? null,
+    subjectId: input.subjectId ?? null,
+    details: input.details ?? {},
+    previousHash: last?.hash ?? GENESIS_HASH,
+  }
+  const [inserted] = await tx.insert(auditEvents).values({ ...row, hash: auditRowHash(row) }).returning()
+  return inserted!
+}
+
+/**
+ * Append one audit event to the hash chain. Pass a transaction to make the event part of
+ * the change it records (both land or neither does).
+ */
+export async function recordAudit(database: Database, input: AuditInput, transaction?: Executor): Promise<AuditEvent> {
+  if (transaction)
+    return appendInTransaction(transaction, input)
+  return database.transaction(tx => appendInTransaction(tx, input))
+}
+
+/** Audit helper for a route: the actor is the signed-in person, if any. */
+export async function auditFromEvent(event: H3Event, input: Omit<AuditInput, 'actorId' | 'actorEmail'>, transaction?: Executor) {
+  const session = await getUserSession(event)
+  const user = session.user as { id?: string, email?: string } | undefined
+  return recordAudit(useDatabase(), { ...input, actorId: user?.id ?? null, actorEmail: user?.email ?? null }, transaction)
+}
+
+export interface ChainReport {
+  ok: boolean
+  checked: number
+  lastHash: string
+  problem: null | { sequence: number, message: string }
+}
+
+/** Walk the whole chain in order, recomputing each row's hash and its link to the row before. */
+export async function verifyAuditChain(database: Database, batchSize = 5000): Promise<ChainReport> {
+  let previousHash = GENESIS_HASH
+  let after = 0
+  let checked = 0
+  for (;;) {
+    const rows = await database.select().from(auditEvents)
+      .where(gt(auditEvents.sequence, after)).orderBy(asc(auditEvents.sequence)).limit(batchSize)
+    for (const row of rows) {
+      if (row.previousHash !== previousHash) {
+        return { ok: false, checked, lastHash: previousHash, problem: { sequence: row.sequence, message: `event ${row.sequence} does not link to the event before it (a row was removed, inserted or reordered)` } }
+      }
+      const { sequence: _sequence, hash, ...rest } = row
+      if (auditRowHash(rest) !== hash) {
+        return { ok: false, checked, lastHash: previousHash, problem: { sequence: row.sequence, message: `event ${row.sequence} was changed after it was written: its contents no longer match its hash` } }
+      }
+      previousHash = hash
+      checked++
+      after = row.sequence
+    }
+    if (rows.length < batchSize)
+      break
+  }
+  return { ok: true, checked, lastHash: previousHash, problem: null }
+}

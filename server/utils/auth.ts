@@ -1,0 +1,59 @@
+import type { H3Event } from 'h3'
+import { eq } from 'drizzle-orm'
+import { people, personRoles, type Role } from '../database/schema'
+
+export interface SessionPerson {
+  id: string
+  email: string
+  name: string
+  roles: Role[]
+}
+
+/** Load a person with their roles; undefined when missing. */
+export async function findPerson(id: string): Promise<(SessionPerson & { disabled: boolean }) | undefined> {
+  const database = useDatabase()
+  const [person] = await database.select().from(people).where(eq(people.id, id)).limit(1)
+  if (!person)
+    return undefined
+  const roles = await database.select({ role: personRoles.role }).from(personRoles).where(eq(personRoles.personId, id))
+  return { id: person.id, email: person.email, name: person.name, disabled: person.disabled, roles: roles.map(r => r.role).sort() }
+}
+
+/**
+ * The signed-in person, re-read from the database on every request so that a role change
+ * or a disabled account takes effect at once, even with a sealed cookie still alive.
+ * 401 when signed out (always before any validation of the request).
+ */
+export async function requirePerson(event: H3Event): Promise<SessionPerson> {
+  if (event.context.person)
+    return event.context.person as SessionPerson
+  const session = await getUserSession(event)
+  const id = (session.user as { id?: string } | undefined)?.id
+  if (!id)
+    throw createError({ statusCode: 401, message: 'Sign in first.' })
+  const person = await findPerson(id)
+  if (!person || person.disabled) {
+    await clearUserSession(event)
+    throw createError({ statusCode: 401, message: person?.disabled ? 'This account is disabled.' : 'Sign in first.' })
+  }
+  const { disabled: _disabled, ...current } = person
+  event.context.person = current
+  return current
+}
+
+/** 401 when signed out, 403 unless the person holds at least one of the roles. */
+export async function requireRole(event: H3Event, ...roles: Role[]): Promise<SessionPerson> {
+  const person = await requirePerson(event)
+  if (!roles.some(role => person.roles.includes(role)))
+    throw createError({ statusCode: 403, message: `This needs the ${roles.join(' or ')} role.` })
+  return person
+}
+
+export function hasRole(person: SessionPerson, ...roles: Role[]): boolean {
+  return roles.some(role => person.roles.includes(role))
+}
+
+/** Compliance and admin read every notebook; others only those they belong to. */
+export function readsAllNotebooks(person: SessionPerson): boolean {
+  return hasRole(person, 'compliance', 'admin')
+}

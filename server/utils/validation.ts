@@ -1,0 +1,44 @@
+import type { H3Event } from 'h3'
+import type { z } from 'zod'
+
+/** `levels[2].degeneracy` from zod's path array. */
+export function formatIssuePath(path: readonly PropertyKey[]): string {
+  let out = ''
+  for (const part of path) {
+    if (typeof part === 'number')
+      out += `[${part}]`
+    else
+      out += out ? `.${String(part)}` : String(part)
+  }
+  return out
+}
+
+export interface FieldIssue { path: string, message: string }
+
+/** Throw a 400 that names every field at fault; never lets a zod error reach the client raw. */
+export function validationError(issues: FieldIssue[], where: string): never {
+  const first = issues[0]
+  const message = first
+    ? `${first.path || where}: ${first.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`
+    : `invalid ${where}`
+  throw createError({ statusCode: 400, message, data: { issues } })
+}
+
+export function parseWith<S extends z.ZodType>(schema: S, value: unknown, where: string): z.output<S> {
+  const parsed = schema.safeParse(value)
+  if (parsed.success)
+    return parsed.data
+  validationError(parsed.error.issues.map(issue => ({ path: formatIssuePath(issue.path), message: issue.message })), where)
+}
+
+export function validBody<S extends z.ZodType>(event: H3Event, schema: S) {
+  return readValidatedBody(event, body => parseWith(schema, body, 'body'))
+}
+
+export function validQuery<S extends z.ZodType>(event: H3Event, schema: S) {
+  return getValidatedQuery(event, query => parseWith(schema, query, 'query'))
+}
+
+export function validParams<S extends z.ZodType>(event: H3Event, schema: S) {
+  return getValidatedRouterParams(event, params => parseWith(schema, params, 'route'))
+}
