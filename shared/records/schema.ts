@@ -165,6 +165,6 @@ export function describeIssues(issues: readonly z.core.$ZodIssue[], root: string
 /** Parses or throws one Error whose message names every offending field. */
 export function parseOrThrow<Schema extends z.ZodType>(schema: Schema, value: unknown, root: string): z.infer<Schema> {
   const result = schema.safeParse(value)
-  if (!result.success) throw new Error(`invalid ${root}: ${describeIssues(result.error.issues, root).join('; ')}`)
+  if (!result.success) throw new Error(describeIssues(result.error.issues, root).join('; '))
   return result.data
 }
