@@ -151,6 +151,16 @@ export function fittedHorizontalAxis(
   return axis
 }
 
+/**
+ * How far the last tick label would stick out past the drawing's right edge, given
+ * `rightRoom` pixels between the axis end and that edge; 0 when it fits.
+ */
+export function rightOverflow(axis: ContinuousAxis, rightRoom: number, fontSize: number, exponentSize: number): number {
+  const last = axis.ticks.reduce<Tick | undefined>((found, tick) => (!found || tick.value > found.value ? tick : found), undefined)
+  if (!last || Math.abs(last.value - axis.domain[1]) > 1e-9 * Math.max(1, Math.abs(axis.domain[1]))) return 0
+  return Math.max(0, Math.ceil(tickLabelWidth(last.label, fontSize, exponentSize) / 2 + 2 - rightRoom))
+}
+
 export interface BandLabel {
   index: number
   text: string

@@ -97,7 +97,7 @@ export interface PlotArea {
  * Left axis: gridlines across the plot, tick marks and labels. The axis title is written
  * horizontally above the axis (no rotated text: easier to read and to print).
  */
-export function leftAxis(axis: ContinuousAxis, area: PlotArea, title: string, options: { grid?: boolean } = {}): string {
+export function leftAxis(axis: ContinuousAxis, area: PlotArea, title: string, options: { grid?: boolean; titleWidth?: number } = {}): string {
   const toY = mapper(axis.domain, [area.bottom, area.top])
   let out = ''
   if (options.grid !== false) {
@@ -111,8 +111,8 @@ export function leftAxis(axis: ContinuousAxis, area: PlotArea, title: string, op
   }
   out += line(area.left, area.top, area.left, area.bottom, INK, 1)
   if (title) {
-    const room = area.right - 4
-    out += text(4, area.top - 10, truncateText(title, LABEL_FONT, room), { size: LABEL_FONT, fill: INK })
+    const room = options.titleWidth ?? area.right - 4
+    out += text(4, area.top - 17, truncateText(title, LABEL_FONT, room), { size: LABEL_FONT, fill: INK })
   }
   return out
 }
@@ -146,6 +146,9 @@ export function xAxisTitle(area: PlotArea, title: string): string {
   const room = area.right - area.left + 40
   return text((area.left + area.right) / 2, y, truncateText(title, LABEL_FONT, room), { size: LABEL_FONT, anchor: 'middle' })
 }
+
+/** Space above the plot for the horizontal y-axis title (clear of a raised exponent). */
+export const Y_TITLE_SPACE = LABEL_FONT + 26
 
 /** Space under the plot for tick labels and the x-axis title. */
 export const BOTTOM_MARGIN = TICK_LENGTH + TICK_FONT + 3 + LABEL_FONT + 9 + 8

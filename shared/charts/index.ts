@@ -8,3 +8,6 @@ export { populationChart, type PopulationChartData, type PopulationLevel } from 
 export { temperatureColor, SERIES_COLORS, SERIES_DASHES, DATA as DATA_COLOR, INK as INK_COLOR, FONT_FAMILY } from './palette'
 export { formatNumber, formatFromLog10 } from './format'
 export { escapeXml } from './xml'
+export { sweepChart, type SweepChartData, type SweepSeries } from './sweep'
+export { boltzmannPlotChart, type BoltzmannPlotData, type BoltzmannPoint } from './boltzmann'
+export { distributionChart, type DistributionChartData } from './distribution'

@@ -1,7 +1,7 @@
-import { bandLabels, fittedHorizontalAxis, linearAxis, logAxis, mapper, type ContinuousAxis } from './axes'
+import { bandLabels, fittedHorizontalAxis, linearAxis, logAxis, mapper, rightOverflow, type ContinuousAxis } from './axes'
 import {
-  axisTitle, BOTTOM_MARGIN, bottomAxis, chartSize, EXPONENT_FONT, LABEL_FONT, leftAxis, leftMargin, line, noDataChart,
-  svgDocument, text, TICK_FONT, titleBlock, xAxisTitle,
+  axisTitle, BOTTOM_MARGIN, bottomAxis, chartSize, EXPONENT_FONT, leftAxis, leftMargin, line, noDataChart,
+  svgDocument, text, TICK_FONT, titleBlock, xAxisTitle, Y_TITLE_SPACE,
 } from './draw'
 import { formatFromLog10, formatNumber } from './format'
 import { DATA, INK, INK_SOFT } from './palette'
@@ -70,11 +70,12 @@ export function populationChart(data: PopulationChartData, options: ChartOptions
   const useEnergyAxis = data.xAxis === 'energy' || (data.xAxis !== 'label' && plotted.length > 24)
   // Label mode writes each level's energy under its label: one more line of ticks.
   const energyRow = useEnergyAxis ? 0 : TICK_FONT + 4
-  const area = { left: 0, top: heading.height + LABEL_FONT + 20, right: size.width - 16, bottom: size.height - BOTTOM_MARGIN - energyRow }
+  const area = { left: 0, top: heading.height + Y_TITLE_SPACE, right: size.width - 16, bottom: size.height - BOTTOM_MARGIN - energyRow }
   const yCount = Math.max(2, Math.round((area.bottom - area.top) / 40))
   const values = plotted.map((level) => (logScale ? levelLog10(level) : level.fraction))
   const yAxis: ContinuousAxis = logScale
-    ? logAxis(Math.min(...values), Math.max(...values, Math.min(...values) + 1e-12), yCount)
+    // The floor sits a little below the least populated level so its bar stays visible.
+    ? logAxis(Math.min(...values) - 0.05 * Math.max(1, Math.max(...values) - Math.min(...values)), Math.max(...values), yCount)
     : linearAxis(Math.min(0, ...values), Math.max(...values), yCount, { includeZero: true })
   area.left = leftMargin(yAxis)
   const toY = mapper(yAxis.domain, [area.bottom, area.top])
@@ -90,10 +91,11 @@ export function populationChart(data: PopulationChartData, options: ChartOptions
     const xAxis = fittedHorizontalAxis(
       (count) => linearAxis(Math.min(...energies), Math.max(...energies), count),
       Math.max(2, Math.round(width / 80)), width, TICK_FONT, EXPONENT_FONT)
+    area.right -= rightOverflow(xAxis, size.width - area.right, TICK_FONT, EXPONENT_FONT)
     const toX = mapper(xAxis.domain, [area.left, area.right])
     body += leftAxis(yAxis, area, yTitle)
     body += bottomAxis(xAxis, area, axisTitle('Level energy', energyUnit))
-    const stemWidth = Math.min(6, Math.max(1.5, (width / plotted.length) * 0.5))
+    const stemWidth = Math.min(3, Math.max(1.5, (width / plotted.length) * 0.3))
     for (const level of plotted) {
       const x = toX(level.energy)
       const y = toY(logScale ? levelLog10(level) : level.fraction)
@@ -136,7 +138,7 @@ export function populationChart(data: PopulationChartData, options: ChartOptions
     .filter((entry) => Number.isFinite(entry.log10))
   const most = byPopulation.reduce<typeof byPopulation[number] | undefined>((best, entry) => (!best || entry.log10 > best.log10 ? entry : best), undefined)
   const least = byPopulation.reduce<typeof byPopulation[number] | undefined>((worst, entry) => (!worst || entry.log10 < worst.log10 ? entry : worst), undefined)
-  const energyText = (value: number) => `${formatNumber(value)}${energyUnit.trim() ? ` ${energyUnit.trim()}` : ''}`
+  const energyText = (value: number) => `${formatNumber(value, 4)}${energyUnit.trim() ? ` ${energyUnit.trim()}` : ''}`
   const first = plotted[0]!.energy
   const last = plotted[plotted.length - 1]!.energy
   let alt = `Population fractions of ${plotted.length} level${plotted.length === 1 ? '' : 's'} by ${xDescription}, ${logScale ? 'log' : 'linear'} scale, energies ${plotted.length === 1 ? energyText(first) : `from ${energyText(first)} to ${energyText(last)}`}.`
