@@ -45,8 +45,9 @@ env: THERMOTOME_DATA_DIR, THERMOTOME_PG_PORT (54329), THERMOTOME_PG_DB (thermoto
 EOF
 }
 
-[[ $PORT =~ ^[0-9]+$ ]] && ((PORT >= 1 && PORT <= 65535)) ||
-  die "THERMOTOME_PG_PORT must be a port number, got '$PORT'"
+if ! [[ $PORT =~ ^[1-9][0-9]{0,4}$ ]] || ((PORT > 65535)); then
+  die "THERMOTOME_PG_PORT must be a port number (1-65535), got '$PORT'"
+fi
 [[ $DB =~ ^[A-Za-z_][A-Za-z0-9_]*$ ]] ||
   die "THERMOTOME_PG_DB must be letters, digits and underscores, got '$DB'"
 
@@ -98,11 +99,13 @@ client_bin() { # client_bin psql -> path to a psql (or other client) binary
 }
 
 RUNUSER=""
-as_owner() { # run a command as the cluster owner, from / (postgres cannot enter e.g. /root)
+# Run a command as the cluster owner, from / (postgres cannot enter e.g. /root). fd 9 (our
+# flock) is closed so that the long-lived postmaster does not inherit the lock.
+as_owner() {
   if ((IS_ROOT)); then
-    (cd / && "$RUNUSER" -u "$SYSTEM_USER" -- "$@")
+    (cd / && "$RUNUSER" -u "$SYSTEM_USER" -- "$@" 9>&-)
   else
-    "$@"
+    "$@" 9>&-
   fi
 }
 
@@ -137,6 +140,12 @@ resolve_data_dir() { # sets DATA; $1=1 to print the fallback notice
   # Folders this script creates get mode 755, so the nearest existing one decides.
   if ! owner_can_reach "$(nearest_existing "$wanted")"; then
     DATA=/var/tmp/thermotome-pg-$(short_hash "$key")
+    # /var/tmp is world-writable: only use a folder that we made (owned by us, not writable
+    # by others), never one someone else planted under the predictable name.
+    if [[ -e $DATA || -L $DATA ]]; then
+      [[ -d $DATA && ! -L $DATA && -O $DATA && $(stat -c %A -- "$DATA") != ?????w???? && $(stat -c %A -- "$DATA") != ????????w? ]] ||
+        die "$DATA exists but is not a folder owned by $(id -un) and closed to others; remove it or set THERMOTOME_DATA_DIR"
+    fi
     ((notice)) && say "$wanted is not reachable by the $SYSTEM_USER user; using $DATA instead (set THERMOTOME_DATA_DIR to a folder $SYSTEM_USER can enter to override)"
   fi
   return 0
@@ -162,7 +171,9 @@ lock_data_dir() { # serialise start/stop on one data folder
 }
 
 # ---------------------------------------------------------------- process checks
-pid_from_file() { head -n 1 -- "$PGDATA/postmaster.pid" 2>/dev/null | tr -dc '0-9'; }
+# postmaster.pid: line 1 the postmaster's pid, line 4 its port. The file may vanish at any
+# moment (server stopping), hence the `|| true`.
+pid_from_file() { { head -n 1 -- "$PGDATA/postmaster.pid" 2>/dev/null || true; } | tr -dc '0-9'; }
 
 # The postmaster named in postmaster.pid is alive: a live process whose command is postgres
 # and (when we can see it) whose working folder is our cluster. The cwd check catches a pid
@@ -171,7 +182,11 @@ postmaster_alive() {
   local pid
   pid=$(pid_from_file)
   [[ -n $pid ]] || return 1
-  [[ -d /proc/$pid ]] || return 1
+  local stat state
+  stat=$(cat "/proc/$pid/stat" 2>/dev/null) || return 1
+  state=${stat##*) } # fields after "pid (comm) "
+  state=${state%% *}
+  [[ $state != [ZX] ]] || return 1 # a killed postmaster can linger as a zombie
   [[ $(cat "/proc/$pid/comm" 2>/dev/null) == postgres ]] || return 1
   # -e/-ef stat /proc/<pid>/cwd (no fork); unreadable (other user, not root): trust comm.
   if [[ -e /proc/$pid/cwd ]]; then
@@ -180,7 +195,7 @@ postmaster_alive() {
   return 0
 }
 
-running_port() { sed -n 4p "$PGDATA/postmaster.pid" 2>/dev/null | tr -dc '0-9'; }
+running_port() { { sed -n 4p -- "$PGDATA/postmaster.pid" 2>/dev/null || true; } | tr -dc '0-9'; }
 
 clear_stale_lock() {
   [[ -f $PGDATA/postmaster.pid ]] || return 0
@@ -337,7 +352,7 @@ cmd_start() {
     -o "-p $PORT -c listen_addresses=127.0.0.1" start 2>&1); then
     printf '%s\n' "$out" >&2
     say "last lines of $LOG_FILE:"
-    tail -n 15 -- "$LOG_FILE" >&2 || true
+    tail -n 8 -- "$LOG_FILE" >&2 || true
     die "could not start PostgreSQL (is port $PORT in use?)"
   fi
   ensure_database "$PORT"
