@@ -17,7 +17,7 @@ import {
 } from './constants'
 import { inputError } from './errors'
 
-const math = create(all)
+const math = create(all!)
 // mathjs defines the electronvolt with the CODATA 2010 charge; the SI 2019 value is exact.
 math.createUnit('eV', { definition: `${ELEMENTARY_CHARGE} J`, prefixes: 'short' }, { override: true })
 math.createUnit('cal', { definition: `${THERMOCHEMICAL_CALORIE} J`, prefixes: 'short' }, { override: true })

@@ -1,0 +1,134 @@
+/**
+ * Thermotome calculation engine: pure TypeScript, no I/O, the same in the browser and on the server.
+ * evaluate({kind, input}) → {kind, engineVersion, result, warnings}.
+ */
+import { EngineInputError, type InputIssue } from './errors'
+import { registry, type KindDefinition } from './registry'
+import { issuesFromZod } from './schema'
+
+export * from './constants'
+export { EngineInputError, type InputIssue } from './errors'
+export {
+  parseQuantity,
+  toKelvin,
+  toJoules,
+  toPascal,
+  toTesla,
+  toHertz,
+  toKilogramsPerMole,
+  toParticleCount,
+  toGyromagneticRatio,
+  energyFactor,
+  joulesToWavenumber,
+  joulesToMolar,
+  type Quantity,
+  type Dimension,
+} from './units'
+export { registry, type KindDefinition } from './registry'
+export { NUCLEI } from './kinds/spin'
+export { ENUMERATION_LIMIT } from './kinds/microstates'
+export type { LevelsResult, LevelPopulation, LevelTableResult } from './kinds/levels'
+export type { VibrationResult } from './kinds/vibration'
+export type { RotationResult } from './kinds/rotation'
+export type { SpinResult } from './kinds/spin'
+export type { MicrostatesResult } from './kinds/microstates'
+export type { BoltzmannPlotResult } from './kinds/boltzmannPlot'
+export type { ThermochemistryResult } from './kinds/thermochemistry'
+
+/** Version of the engine as a whole; each kind also carries its own version. */
+export const ENGINE_VERSION = '1.0.0'
+
+export interface EvaluationRequest {
+  kind: string
+  input: unknown
+}
+
+export interface EvaluationResult {
+  kind: string
+  /** ENGINE_VERSION and the kind's version, e.g. '1.0.0/levels@1'. */
+  engineVersion: string
+  result: any
+  warnings: string[]
+}
+
+/** The kinds for a block picker. */
+export function listKinds(): { kind: string; title: string; description: string; version: number; exampleInput: unknown }[] {
+  return Object.entries(registry).map(([kind, definition]) => ({
+    kind,
+    title: definition.title,
+    description: definition.description,
+    version: definition.version,
+    exampleInput: structuredClone(definition.exampleInput),
+  }))
+}
+
+/**
+ * Validates the input of a kind and computes its result. Throws EngineInputError (with field
+ * paths) for any invalid input and nothing else for bad input.
+ */
+export function evaluate(request: EvaluationRequest): EvaluationResult {
+  if (request === null || typeof request !== 'object') {
+    throw new EngineInputError([{ path: '', message: 'expected a request {kind, input}' }])
+  }
+  const kind = (request as { kind?: unknown }).kind
+  if (typeof kind !== 'string' || !Object.hasOwn(registry, kind)) {
+    throw new EngineInputError([{ path: 'kind', message: `expected one of the kinds ${Object.keys(registry).join(', ')}, got ${typeof kind === 'string' ? `'${kind}'` : 'no kind'}` }])
+  }
+  const definition: KindDefinition = registry[kind]!
+  const input = (request as { input?: unknown }).input
+  if (input === null || typeof input !== 'object' || Array.isArray(input)) {
+    throw new EngineInputError([{ path: 'input', message: `expected the input of '${kind}' as an object with named fields` }])
+  }
+  const parsed = definition.schema.safeParse(input)
+  if (!parsed.success) throw new EngineInputError(issuesFromZod(parsed.error))
+  const warnings: string[] = []
+  let result: unknown
+  try {
+    result = definition.compute(parsed.data, warnings)
+  } catch (error) {
+    if (error instanceof EngineInputError) throw error
+    if (error instanceof RangeError) {
+      throw new EngineInputError([{ path: '', message: `the input is too large to compute (${error.message})` }])
+    }
+    throw error
+  }
+  if (replaceNonFinite(result)) {
+    warnings.push('Some numbers were outside the range of a double and are reported as null.')
+  }
+  return { kind, engineVersion: `${ENGINE_VERSION}/${kind}@${definition.version}`, result, warnings }
+}
+
+/** Replaces NaN and ±Infinity by null in place so results stay JSON; returns whether any were found. */
+function replaceNonFinite(value: unknown): boolean {
+  if (value === null || typeof value !== 'object') return false
+  let found = false
+  if (Array.isArray(value)) {
+    for (let index = 0; index < value.length; index++) {
+      const item = value[index]
+      if (typeof item === 'number') {
+        if (!Number.isFinite(item)) {
+          value[index] = null
+          found = true
+        }
+      } else if (item !== null && typeof item === 'object') {
+        if (replaceNonFinite(item)) found = true
+      }
+    }
+    return found
+  }
+  const record = value as Record<string, unknown>
+  for (const key in record) {
+    const item = record[key]
+    if (typeof item === 'number') {
+      if (!Number.isFinite(item)) {
+        record[key] = null
+        found = true
+      }
+    } else if (item !== null && typeof item === 'object') {
+      if (replaceNonFinite(item)) found = true
+    }
+  }
+  return found
+}
+
+export type { InputIssue as EngineInputIssue }

@@ -1,0 +1,262 @@
+/**
+ * Kind `levels`: Boltzmann populations of an arbitrary list of levels with degeneracies.
+ * Populations p_i = g_i exp(-E_i/kT) / q, q = Σ g_i exp(-E_i/kT)
+ * (McQuarrie, Statistical Mechanics, 2000, ch. 2; Atkins' Physical Chemistry, 11th ed., Topic 13B).
+ */
+import { z } from 'zod'
+import { AVOGADRO_CONSTANT, LN10 } from '../constants'
+import { boltzmannStatistics, finiteOrNull, molarFunctions } from '../numerics'
+import { describeInput, labelField, quantityField, strictObject, wholeNumber } from '../schema'
+import { energyFactor, toParticleCount } from '../units'
+import { energyField, temperatureField } from './common'
+
+const levelRow = strictObject({
+  label: labelField,
+  energy: energyField,
+  degeneracy: wholeNumber('a degeneracy: a whole number of at least 1').default(1),
+})
+
+function isNumberList(value: unknown): value is ArrayLike<number> {
+  return Array.isArray(value) || value instanceof Float64Array || value instanceof Float32Array || value instanceof Int32Array
+}
+
+/** A long list of plain numbers, checked in one tight loop (zod per element would be slow at 10^6). */
+function numberColumn(what: string, accept: (value: number) => boolean) {
+  return z
+    .custom<ArrayLike<number>>(isNumberList, { error: (issue) => `expected a list of ${what}, got ${describeInput(issue.input)}` })
+    .superRefine((values, context) => {
+      let reported = 0
+      for (let index = 0; index < values.length; index++) {
+        const value = values[index]
+        if (typeof value !== 'number' || !accept(value)) {
+          context.addIssue({ code: 'custom', message: `expected ${what}, got ${describeInput(value)}`, path: [index] })
+          if (++reported >= 5) return
+        }
+      }
+    })
+}
+
+const levelTable = strictObject({
+  energyUnit: quantityField("cm^-1", (text) => ({ text: text.trim(), factor: energyFactor(text, '') })),
+  energies: numberColumn('energies as finite numbers', Number.isFinite),
+  degeneracies: numberColumn('degeneracies as whole numbers of at least 1', (value) => Number.isInteger(value) && value >= 1).optional(),
+  labels: z.array(z.string({ error: 'expected a label as text' })).optional(),
+})
+
+const amountField = z
+  .union([z.number(), z.string()], { error: (issue) => `expected an amount such as '1 mol' or a number of particles, got ${describeInput(issue.input)}` })
+  .transform((value, context) => {
+    try {
+      return toParticleCount(value, '')
+    } catch (error) {
+      context.issues.push({ code: 'custom', message: (error as Error).message.replace(/^: /, ''), input: value })
+      return z.NEVER
+    }
+  })
+
+export const levelsSchema = strictObject({
+  levels: z.array(levelRow, { error: 'expected a list of levels, each with an energy and a degeneracy' }).min(1, { error: 'the level list is empty: give at least one level' }).optional(),
+  levelTable: levelTable.optional(),
+  temperature: temperatureField,
+  amount: amountField.optional(),
+}).superRefine((input, context) => {
+  if (input.levels === undefined && input.levelTable === undefined) {
+    context.addIssue({ code: 'custom', message: 'give the levels: a list of {energy, degeneracy}', path: ['levels'] })
+  }
+  if (input.levels !== undefined && input.levelTable !== undefined) {
+    context.addIssue({ code: 'custom', message: 'give either levels or levelTable, not both', path: ['levelTable'] })
+  }
+  const table = input.levelTable
+  if (table) {
+    if (table.energies.length === 0) context.addIssue({ code: 'custom', message: 'the level list is empty: give at least one energy', path: ['levelTable', 'energies'] })
+    if (table.degeneracies && table.degeneracies.length !== table.energies.length) {
+      context.addIssue({ code: 'custom', message: `expected one degeneracy per energy (${table.energies.length}), got ${table.degeneracies.length}`, path: ['levelTable', 'degeneracies'] })
+    }
+    if (table.labels && table.labels.length !== table.energies.length) {
+      context.addIssue({ code: 'custom', message: `expected one label per energy (${table.energies.length}), got ${table.labels.length}`, path: ['levelTable', 'labels'] })
+    }
+  }
+})
+
+export type LevelsInput = z.output<typeof levelsSchema>
+
+export interface LevelPopulation {
+  label: string | null
+  /** The energy as typed. */
+  energy: string
+  energyJ: number
+  degeneracy: number
+  /** Fraction of particles in the level (all its degenerate states together). */
+  fraction: number
+  /** log10 of the fraction; finite even where the fraction underflows to 0. */
+  log10Fraction: number
+  /** Expected number of particles (only with an amount). */
+  count?: number
+  /** True when the expected count is below one particle (only with an amount). */
+  belowOneParticle?: boolean
+}
+
+export interface LevelTableResult {
+  energyUnit: string
+  energies: number[]
+  degeneracies: number[] | null
+  fractions: number[]
+  log10Fractions: number[]
+  counts?: number[]
+  belowOneParticle?: boolean[]
+}
+
+export interface LevelsResult {
+  temperature: number
+  /** q with the energies as given (null if it overflows or underflows a double). */
+  partitionFunction: number | null
+  log10PartitionFunction: number
+  /** q with the energy zero at the lowest level (≥ its degeneracy). */
+  partitionFunctionFromLowest: number
+  levels?: LevelPopulation[]
+  levelTable?: LevelTableResult
+  mostPopulated: { index: number; label: string | null; fraction: number }
+  meanEnergyJ: number
+  /** U = N_A <E>, J/mol, energies as given. */
+  molarInternalEnergy: number
+  /** S, J/(mol K). */
+  molarEntropy: number
+  /** C_V, J/(mol K). */
+  molarHeatCapacity: number
+  particleCount?: number
+  units: Record<string, string>
+}
+
+const RESULT_UNITS = {
+  temperature: 'K',
+  energyJ: 'J per particle',
+  meanEnergyJ: 'J per particle',
+  molarInternalEnergy: 'J/mol',
+  molarEntropy: 'J/(mol K)',
+  molarHeatCapacity: 'J/(mol K)',
+}
+
+/** Populations, partition function and molar U, S, C_V of a level list at temperature T. */
+export function computeLevels(input: LevelsInput, warnings: string[] = []): LevelsResult {
+  const temperature = input.temperature
+  const rows = input.levels
+  const table = input.levelTable
+  const count = rows ? rows.length : table!.energies.length
+  let energies: ArrayLike<number>
+  let degeneracies: ArrayLike<number> | null
+  let scale = 1
+  if (rows) {
+    const energyArray = new Float64Array(count)
+    const degeneracyArray = new Float64Array(count)
+    for (let index = 0; index < count; index++) {
+      energyArray[index] = rows[index]!.energy.joules
+      degeneracyArray[index] = rows[index]!.degeneracy
+    }
+    energies = energyArray
+    degeneracies = degeneracyArray
+  } else {
+    energies = table!.energies
+    degeneracies = table!.degeneracies ?? null
+    scale = table!.energyUnit.factor
+  }
+  const fractions: number[] = new Array<number>(count)
+  const log10Fractions: number[] = new Array<number>(count)
+  const statistics = boltzmannStatistics(energies, degeneracies, temperature, fractions, log10Fractions, scale)
+  const molar = molarFunctions(statistics, temperature)
+  const particleCount = input.amount
+  let counts: number[] | undefined
+  let below: boolean[] | undefined
+  let belowCount = 0
+  if (particleCount !== undefined) {
+    counts = new Array<number>(count)
+    below = new Array<boolean>(count)
+    for (let index = 0; index < count; index++) {
+      const expected = fractions[index]! * particleCount
+      counts[index] = expected
+      const isBelow = expected < 1
+      below[index] = isBelow
+      if (isBelow) belowCount++
+    }
+  }
+  let underflowCount = 0
+  for (let index = 0; index < count; index++) if (fractions[index] === 0) underflowCount++
+
+  if (belowCount > 0) {
+    warnings.push(
+      `${belowCount} of ${count} level${count === 1 ? '' : 's'} ${belowCount === 1 ? 'holds' : 'hold'} fewer than one particle on average out of ${particleCount!.toPrecision(4)}: such counts are expectation values, not whole particles.`,
+    )
+  }
+  if (underflowCount > 0) {
+    warnings.push(`${underflowCount} level${underflowCount === 1 ? ' has a population' : 's have populations'} below the smallest number a double can hold (about 1e-308): read ${underflowCount === 1 ? 'it' : 'them'} from log10Fraction.`)
+  }
+  const lnQ = statistics.lnPartitionFunction
+  const labelAt = (index: number): string | null => (rows ? rows[index]!.label ?? null : table!.labels?.[index] ?? null)
+  const result: LevelsResult = {
+    temperature,
+    partitionFunction: finiteOrNull(Math.exp(lnQ)) === 0 ? null : finiteOrNull(Math.exp(lnQ)),
+    log10PartitionFunction: lnQ / LN10,
+    partitionFunctionFromLowest: Math.exp(statistics.lnPartitionFunctionFromLowest),
+    mostPopulated: { index: statistics.mostPopulatedIndex, label: labelAt(statistics.mostPopulatedIndex), fraction: fractions[statistics.mostPopulatedIndex]! },
+    meanEnergyJ: statistics.meanEnergy,
+    molarInternalEnergy: molar.internalEnergy,
+    molarEntropy: molar.entropy,
+    molarHeatCapacity: molar.heatCapacity,
+    units: RESULT_UNITS,
+  }
+  if (result.partitionFunction === null) {
+    warnings.push('The partition function with the energies as given is outside the range of a double; use log10PartitionFunction or partitionFunctionFromLowest.')
+  }
+  if (particleCount !== undefined) result.particleCount = particleCount
+  if (rows) {
+    const levels: LevelPopulation[] = new Array(count)
+    for (let index = 0; index < count; index++) {
+      const row = rows[index]!
+      const level: LevelPopulation = {
+        label: row.label ?? null,
+        energy: row.energy.text,
+        energyJ: row.energy.joules,
+        degeneracy: row.degeneracy,
+        fraction: fractions[index]!,
+        log10Fraction: log10Fractions[index]!,
+      }
+      if (counts) {
+        level.count = counts[index]!
+        level.belowOneParticle = below![index]!
+      }
+      levels[index] = level
+    }
+    result.levels = levels
+  } else {
+    const tableResult: LevelTableResult = {
+      energyUnit: table!.energyUnit.text,
+      energies: Array.isArray(table!.energies) ? (table!.energies as number[]) : Array.from(table!.energies),
+      degeneracies: table!.degeneracies ? (Array.isArray(table!.degeneracies) ? (table!.degeneracies as number[]) : Array.from(table!.degeneracies)) : null,
+      fractions,
+      log10Fractions,
+    }
+    if (counts) {
+      tableResult.counts = counts
+      tableResult.belowOneParticle = below!
+    }
+    result.levelTable = tableResult
+  }
+  return result
+}
+
+export const levelsKind = {
+  title: 'Level populations',
+  description: 'Boltzmann populations, partition function and molar energy, entropy and heat capacity of a list of levels at one temperature.',
+  version: 1,
+  schema: levelsSchema,
+  compute: computeLevels,
+  temperatureField: 'temperature',
+  exampleInput: {
+    levels: [
+      { label: 'v = 0 (generic CO-like ladder)', energy: '0 cm^-1', degeneracy: 1 },
+      { label: 'v = 1', energy: '2143.3 cm^-1', degeneracy: 1 },
+      { label: 'v = 2', energy: '4260.1 cm^-1', degeneracy: 1 },
+    ],
+    temperature: '298.15 K',
+    amount: '1 mol',
+  },
+}
