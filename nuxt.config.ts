@@ -24,16 +24,24 @@ export default defineNuxtConfig({
   },
   runtimeConfig: {
     // DATABASE_URL is read directly in server/utils/db.ts so that scripts share it.
-    demoMode: process.env.THERMOTOME_DEMO === '1',
+    // Demo mode is switched on at run time with NUXT_DEMO_MODE=true and NUXT_PUBLIC_DEMO_MODE=true.
+    demoMode: false,
     session: {
       maxAge: 60 * 60 * 8, // eight hours, then sign in again
       cookie: { sameSite: 'lax' },
     },
     public: {
-      demoMode: process.env.THERMOTOME_DEMO === '1',
+      demoMode: false,
     },
   },
+  // The engine uses BigInt literals for exact microstate counts: target ES2022 everywhere.
+  vite: {
+    build: { target: 'es2022' },
+    esbuild: { target: 'es2022' },
+    optimizeDeps: { esbuildOptions: { target: 'es2022' } },
+  },
   nitro: {
+    esbuild: { options: { target: 'es2022' } },
     serverAssets: [
       { baseName: 'fonts', dir: '../node_modules/@fontsource/atkinson-hyperlegible/files' },
       { baseName: 'migrations', dir: './database/migrations' },

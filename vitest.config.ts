@@ -6,8 +6,8 @@ const alias = {
   '~': fileURLToPath(new URL('.', import.meta.url)),
 }
 
-// Three suites: pure unit tests, API tests against one built server and the private
-// PostgreSQL, and browser tests in Debian's Chromium. See DEVELOPERS.md.
+// Two projects: pure unit tests, and the server suite (API tests against one built server
+// and the private PostgreSQL, browser tests in Debian's Chromium). See DEVELOPERS.md.
 export default defineConfig({
   resolve: { alias },
   test: {
@@ -19,23 +19,13 @@ export default defineConfig({
       {
         resolve: { alias },
         test: {
-          name: 'api',
-          include: ['tests/api/**/*.test.ts'],
-          globalSetup: ['tests/support/global-setup.ts'],
-          fileParallelism: false,
-          testTimeout: 30_000,
-          hookTimeout: 120_000,
-        },
-      },
-      {
-        resolve: { alias },
-        test: {
-          name: 'e2e',
-          include: ['tests/e2e/**/*.test.ts'],
+          // API and browser tests share one built server and one test database.
+          name: 'server',
+          include: ['tests/api/**/*.test.ts', 'tests/e2e/**/*.test.ts'],
           globalSetup: ['tests/support/global-setup.ts'],
           fileParallelism: false,
           testTimeout: 60_000,
-          hookTimeout: 120_000,
+          hookTimeout: 180_000,
         },
       },
     ],

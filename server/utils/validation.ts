@@ -31,14 +31,16 @@ export function parseWith<S extends z.ZodType>(schema: S, value: unknown, where:
   validationError(parsed.error.issues.map(issue => ({ path: formatIssuePath(issue.path), message: issue.message })), where)
 }
 
-export function validBody<S extends z.ZodType>(event: H3Event, schema: S) {
-  return readValidatedBody(event, body => parseWith(schema, body, 'body'))
+// h3's readValidatedBody and friends re-wrap a thrown error as "Validation Error" and bury
+// the field list one level deeper; reading first and parsing here keeps one error shape.
+export async function validBody<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
+  return parseWith(schema, await readBody(event), 'body')
 }
 
-export function validQuery<S extends z.ZodType>(event: H3Event, schema: S) {
-  return getValidatedQuery(event, query => parseWith(schema, query, 'query'))
+export function validQuery<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
+  return parseWith(schema, getQuery(event), 'query')
 }
 
-export function validParams<S extends z.ZodType>(event: H3Event, schema: S) {
-  return getValidatedRouterParams(event, params => parseWith(schema, params, 'route'))
+export function validParams<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {
+  return parseWith(schema, getRouterParams(event, { decode: true }), 'route')
 }

@@ -7,7 +7,8 @@ let decoyHash: string | undefined
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await validBody(event, signInSchema)
-  const key = throttleKey(email, getRequestIP(event, { xForwardedFor: true }))
+  // Behind a load balancer (THERMOTOME_TRUST_PROXY=1) the client address comes from X-Forwarded-For.
+  const key = throttleKey(email, getRequestIP(event, { xForwardedFor: process.env.THERMOTOME_TRUST_PROXY === '1' }))
   const wait = await secondsToWait(key)
   if (wait > 0) {
     setResponseHeader(event, 'Retry-After', wait)

@@ -1,0 +1,79 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import { as, Client, type DemoKey } from '../support/http'
+
+/**
+ * Every route × (anonymous and each role) with the status it must answer. The demo lab
+ * gives one person per role: amara (scientist), priya (witness), felix (compliance),
+ * hana (admin). Amara and Priya belong to the infrared notebook; neither Amara nor
+ * Felix belongs to the NMR notebook, but Felix reads every notebook as records officer.
+ */
+type Who = 'anonymous' | DemoKey
+const WHO: Who[] = ['anonymous', 'amara', 'priya', 'felix', 'hana']
+
+const clients = new Map<Who, Client>()
+const ids: Record<string, string> = {}
+let serial = 0
+
+beforeAll(async () => {
+  clients.set('anonymous', new Client('198.18.0.1'))
+  for (const who of WHO.slice(1)) clients.set(who, await as(who as DemoKey))
+  const notebooks = (await clients.get('hana')!.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
+  ids.infrared = notebooks.find(n => n.name.startsWith('Infrared'))!.id
+  ids.nmr = notebooks.find(n => n.name.startsWith('Hyperpolarisation'))!.id
+  const entries = (await clients.get('amara')!.get(`/api/notebooks/${ids.infrared}/entries?sort=title&direction=asc`)).body.entries as { id: string, title: string, author: { name: string } }[]
+  ids.amaraEntry = entries.find(e => e.author.name.includes('Amara'))!.id
+  const people = (await clients.get('hana')!.get('/api/people')).body.people as { id: string, email: string }[]
+  ids.priya = people.find(p => p.email.startsWith('priya'))!.id
+})
+
+interface RouteCase {
+  name: string
+  method: 'GET' | 'POST' | 'PATCH' | 'PUT'
+  path: () => string
+  body?: (who: Who) => unknown
+  expect: Record<Who, number>
+}
+
+const anyoneSignedIn = { anonymous: 401, amara: 200, priya: 200, felix: 200, hana: 200 }
+const adminOnly = (ok: number) => ({ anonymous: 401, amara: 403, priya: 403, felix: 403, hana: ok })
+const recordsOnly = { anonymous: 401, amara: 403, priya: 403, felix: 200, hana: 200 }
+
+const routes: RouteCase[] = [
+  { name: 'health', method: 'GET', path: () => '/api/health', expect: { anonymous: 200, amara: 200, priya: 200, felix: 200, hana: 200 } },
+  { name: 'demo sign-in details', method: 'GET', path: () => '/api/demo', expect: { anonymous: 200, amara: 200, priya: 200, felix: 200, hana: 200 } },
+  { name: 'who am I', method: 'GET', path: () => '/api/auth/me', expect: anyoneSignedIn },
+  { name: 'list notebooks', method: 'GET', path: () => '/api/notebooks', expect: anyoneSignedIn },
+  { name: 'create notebook', method: 'POST', path: () => '/api/notebooks', body: who => ({ name: `Permission check ${who} ${serial++} ${Date.now()}` }), expect: adminOnly(201) },
+  { name: 'read a notebook one belongs to', method: 'GET', path: () => `/api/notebooks/${ids.infrared}`, expect: anyoneSignedIn },
+  { name: 'read a notebook one does not belong to', method: 'GET', path: () => `/api/notebooks/${ids.nmr}`, expect: { anonymous: 401, amara: 404, priya: 200, felix: 200, hana: 200 } },
+  { name: 'set notebook members', method: 'PUT', path: () => `/api/notebooks/${ids.nmr}/members`, body: () => ({ memberIds: [] }), expect: adminOnly(200) },
+  { name: 'list entries', method: 'GET', path: () => `/api/notebooks/${ids.infrared}/entries`, expect: anyoneSignedIn },
+  { name: 'create entry', method: 'POST', path: () => `/api/notebooks/${ids.infrared}/entries`, body: () => ({ title: 'Permission check' }), expect: { anonymous: 401, amara: 201, priya: 403, felix: 403, hana: 403 } },
+  { name: 'read entry', method: 'GET', path: () => `/api/entries/${ids.amaraEntry}`, expect: anyoneSignedIn },
+  { name: 'entry history', method: 'GET', path: () => `/api/entries/${ids.amaraEntry}/audit`, expect: anyoneSignedIn },
+  { name: 'edit entry', method: 'PATCH', path: () => `/api/entries/${ids.amaraEntry}`, body: () => ({ lockVersion: 1 }), expect: { anonymous: 401, amara: 200, priya: 403, felix: 403, hana: 403 } },
+  { name: 'list people', method: 'GET', path: () => '/api/people', expect: adminOnly(200) },
+  { name: 'create person', method: 'POST', path: () => '/api/people', body: who => ({ email: `perm.${who}.${serial++}.${Date.now()}@kestrel-ridge.example`, name: 'Permission check', roles: [], password: 'twelve chars ok' }), expect: adminOnly(201) },
+  { name: 'change person', method: 'PATCH', path: () => `/api/people/${ids.priya}`, body: () => ({ name: 'Priya Natarajan' }), expect: adminOnly(200) },
+  { name: 'audit trail', method: 'GET', path: () => '/api/audit', expect: recordsOnly },
+  { name: 'audit chain check', method: 'GET', path: () => '/api/audit/verify', expect: recordsOnly },
+  { name: 'calculation kinds', method: 'GET', path: () => '/api/calculations/kinds', expect: anyoneSignedIn },
+  { name: 'evaluate a calculation', method: 'POST', path: () => '/api/calculations', body: () => ({ kind: 'levels', input: { temperature: '300 K', levels: [{ energy: '0 cm^-1' }, { energy: '200 cm^-1', degeneracy: 2 }] } }), expect: anyoneSignedIn },
+]
+
+describe('route permissions', () => {
+  for (const route of routes) {
+    for (const who of WHO) {
+      it(`${route.method} ${route.name} as ${who} → ${route.expect[who]}`, async () => {
+        const client = clients.get(who)!
+        const reply = await client.request(route.method, route.path(), route.body ? route.body(who) : (route.method === 'GET' ? undefined : {}))
+        expect(reply.status, JSON.stringify(reply.body).slice(0, 300)).toBe(route.expect[who])
+      })
+    }
+  }
+
+  it('checks the session before the body: anonymous with a bad body gets 401, not 400', async () => {
+    const reply = await new Client('198.18.0.2').post('/api/notebooks', { name: 42 })
+    expect(reply.status).toBe(401)
+  })
+})

@@ -1,0 +1,91 @@
+import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
+import { existsSync, mkdirSync, createWriteStream } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import pg from 'pg'
+import type { TestProject } from 'vitest/node'
+import { applyMigrations } from '../../server/database/migrate'
+import { seedDemoLab } from '../../server/database/seed'
+
+const root = fileURLToPath(new URL('../..', import.meta.url))
+export const TEST_SESSION_PASSWORD = 'test-session-password-that-is-long-enough-0123456789'
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    baseURL: string
+    databaseURL: string
+  }
+}
+
+/** A fresh database for this run on the private cluster (or TEST_DATABASE_URL's server). */
+async function freshDatabase(): Promise<string> {
+  let adminUrl = process.env.TEST_DATABASE_URL
+  if (!adminUrl) {
+    execFileSync('bash', ['scripts/postgres.sh', 'start'], { cwd: root, stdio: 'inherit' })
+    adminUrl = execFileSync('bash', ['scripts/postgres.sh', 'url'], { cwd: root, encoding: 'utf8' }).trim()
+  }
+  const url = new URL(adminUrl)
+  const name = `thermotome_test_${process.pid}`
+  const admin = new pg.Client({ connectionString: adminUrl })
+  await admin.connect()
+  await admin.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`)
+  await admin.query(`CREATE DATABASE ${name}`)
+  await admin.end()
+  url.pathname = `/${name}`
+  return url.toString()
+}
+
+async function waitForServer(baseURL: string, child: ChildProcess) {
+  const deadline = Date.now() + 60_000
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null)
+      throw new Error(`the test server exited with code ${child.exitCode}; see test-artifacts/server.log`)
+    try {
+      const response = await fetch(`${baseURL}/api/health`)
+      if (response.ok)
+        return
+    }
+    catch { /* not listening yet */ }
+    await new Promise(resolve => setTimeout(resolve, 250))
+  }
+  throw new Error('the test server did not answer within 60 s')
+}
+
+export default async function setup(project: TestProject) {
+  mkdirSync(`${root}/test-artifacts`, { recursive: true })
+  const databaseURL = await freshDatabase()
+  await applyMigrations(databaseURL)
+  await seedDemoLab(databaseURL)
+
+  if (!(process.env.THERMOTOME_REUSE_BUILD === '1' && existsSync(`${root}/.output/server/index.mjs`)))
+    execFileSync('npx', ['nuxi', 'build'], { cwd: root, stdio: ['ignore', 'ignore', 'inherit'] })
+
+  const port = 3300 + (process.pid % 500)
+  const baseURL = `http://127.0.0.1:${port}`
+  const log = createWriteStream(`${root}/test-artifacts/server.log`)
+  const server = spawn(process.execPath, ['.output/server/index.mjs'], {
+    cwd: root,
+    env: {
+      ...process.env,
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      DATABASE_URL: databaseURL,
+      NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
+      NUXT_DEMO_MODE: 'true',
+      THERMOTOME_TRUST_PROXY: '1',
+      NUXT_PUBLIC_DEMO_MODE: 'true',
+      THERMOTOME_DATA_DIR: `${root}/test-artifacts/data`,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  server.stdout!.pipe(log)
+  server.stderr!.pipe(log)
+  await waitForServer(baseURL, server)
+
+  project.provide('baseURL', baseURL)
+  project.provide('databaseURL', databaseURL)
+
+  return async () => {
+    server.kill('SIGTERM')
+    await new Promise(resolve => server.once('exit', resolve))
+  }
+}
