@@ -28,10 +28,14 @@ export function usableExtent(low: number, high: number, options: { includeZero?:
     a = Math.min(a, 0)
     b = Math.max(b, 0)
   }
+  // Spans near the subnormal range break tick arithmetic: treat them as one value.
+  if (b - a < 1e-290) {
+    b = a
+  }
   if (a === b) {
     // A single value or all-equal values: centre it in a band a tenth of its size.
-    const half = a === 0 ? 1 : Math.abs(a) * 0.1
-    if (options.includeZero && a === 0) return [0, 1]
+    const half = Math.abs(a) < 1e-280 ? 1 : Math.abs(a) * 0.1
+    if (Math.abs(a) < 1e-280) return options.includeZero ? [0, 1] : [a - half, a + half]
     if (options.includeZero) return a > 0 ? [0, a * 1.1] : [a * 1.1, 0]
     return [a - half, b + half]
   }
@@ -43,10 +47,14 @@ export function usableExtent(low: number, high: number, options: { includeZero?:
 /** Linear axis with d3's nice ticks (1, 2, 5 × 10ⁿ steps) and a domain extended to them. */
 export function linearAxis(low: number, high: number, count: number, options: { includeZero?: boolean } = {}): ContinuousAxis {
   const extent = usableExtent(low, high, options)
-  const scale = scaleLinear().domain(extent).nice(count)
-  let domain = scale.domain() as [number, number]
+  let domain = scaleLinear().domain(extent).nice(count).domain() as [number, number]
   if (!domain.every(Number.isFinite) || domain[0] === domain[1]) domain = extent
-  let values = scaleLinear().domain(domain).ticks(count).filter(Number.isFinite)
+  let values: number[]
+  try {
+    values = scaleLinear().domain(domain).ticks(count).filter(Number.isFinite)
+  } catch {
+    values = [] // d3 cannot step through some extreme domains; fall back to the ends
+  }
   if (values.length === 0) values = [domain[0], domain[1]]
   const labels = tickParts(values)
   return {
@@ -67,8 +75,9 @@ export function logAxis(lowLog10: number, highLog10: number, count: number): Con
   const [a, b] = usableExtent(lowLog10, highLog10)
   const low = a === b ? a - 0.5 : a
   const high = a === b ? b + 0.5 : b
-  let first = Math.floor(low + 1e-9)
-  let last = Math.ceil(high - 1e-9)
+  // `|| 0` turns -0 into 0.
+  let first = Math.floor(low + 1e-9) || 0
+  let last = Math.ceil(high - 1e-9) || 0
   if (first === last) last = first + 1
   const decades = last - first
   const ticks: Tick[] = []
@@ -91,9 +100,10 @@ export function logAxis(lowLog10: number, highLog10: number, count: number): Con
     }
   } else {
     const step = decadeSteps.find((candidate) => decades / candidate <= wanted) ?? Math.ceil(decades / wanted)
-    first = Math.floor(first / step) * step
-    last = Math.ceil(last / step) * step
-    for (let exponent = first; exponent <= last; exponent += step) labelled(exponent, [1])
+    first = Math.floor(first / step) * step || 0
+    last = Math.ceil(last / step) * step || 0
+    // The count guard stops a loop whose step is lost in rounding (|exponent| near 1e308).
+    for (let exponent = first, guard = 0; exponent <= last && guard < 64; exponent += step, guard++) labelled(exponent, [1])
     if (step === 1 && decades <= 12) {
       for (let exponent = first; exponent < last; exponent++) {
         for (let multiple = 2; multiple <= 9; multiple++) minorTicks.push(exponent + Math.log10(multiple))

@@ -1,4 +1,3 @@
-import { line as lineGenerator } from 'd3-shape'
 import { fittedHorizontalAxis, linearAxis, logAxis, mapper, rightOverflow, type ContinuousAxis } from './axes'
 import {
   axisTitle, BOTTOM_MARGIN, bottomAxis, chartSize, EXPONENT_FONT, leftAxis, leftMargin, legend, noDataChart, svgDocument,
@@ -7,7 +6,7 @@ import {
 import { formatNumber } from './format'
 import { seriesStyle, temperatureColor } from './palette'
 import type { ChartOptions, ChartOutput } from './types'
-import { element } from './xml'
+import { element, pathData } from './xml'
 
 export interface SweepSeries {
   name: string
@@ -114,14 +113,20 @@ export function sweepChart(data: SweepChartData, options: ChartOptions = {}): Ch
   let body = heading.markup + legendBlock.markup
   body += leftAxis(yAxis, area, yTitle)
   body += bottomAxis(xAxis, area, xTitle)
-  const path = lineGenerator<[number, number] | null>()
-    .defined((point) => point !== null)
-    .x((point) => toX(point![0]))
-    .y((point) => toY(point![1]))
-    .digits(1)
   for (const [index, points] of plotted.entries()) {
     const { color, dash } = entries[index]!
-    const d = path(points)
+    // One path per series; a gap (null, non-finite, off a log axis) starts a new piece.
+    let d = ''
+    let piece: Array<[number, number]> = []
+    for (const point of [...points, null]) {
+      const pixel = point && ([toX(point[0]), toY(point[1])] as [number, number])
+      if (pixel && Number.isFinite(pixel[0]) && Number.isFinite(pixel[1])) {
+        piece.push(pixel)
+      } else {
+        if (piece.length > 1) d += pathData(piece)
+        piece = []
+      }
+    }
     if (d) body += element('path', { d, fill: 'none', stroke: color, 'stroke-width': 2, 'stroke-dasharray': dash || undefined, 'stroke-linejoin': 'round' })
     // A point with missing neighbours draws no line: mark it so it is not lost.
     for (const [i, point] of points.entries()) {

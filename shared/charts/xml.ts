@@ -22,9 +22,13 @@ export function escapeXml(text: string): string {
     .replace(/[&<>"']/g, (character) => xmlEntities[character]!)
 }
 
+// Far outside any drawing; clamping keeps wild data from printing as 1e+21.
+const COORDINATE_LIMIT = 1e5
+
 /** Rounds a coordinate to 0.1 user unit and prints it without a trailing ".0". */
 export function coordinate(value: number): string {
-  const rounded = Math.round(value * 10) / 10
+  const clamped = Math.min(COORDINATE_LIMIT, Math.max(-COORDINATE_LIMIT, value))
+  const rounded = Math.round(clamped * 10) / 10
   return Object.is(rounded, -0) ? '0' : String(rounded)
 }
 
