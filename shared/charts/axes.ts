@@ -186,8 +186,8 @@ export function bandLabels(labels: string[], band: number, fontSize: number): Ba
   let every = 1
   const widest = Math.max(...labels.map((label) => textWidth(label, fontSize)))
   while (every < labels.length && widest + gap > band * every && every < 64) every++
-  // Keep a labelled band at least every 1/16 of the axis, shortening labels if needed.
-  every = Math.min(every, Math.max(1, Math.ceil(labels.length / 16)))
+  // Thin rather than shorten, but keep at least four labels; past that, shorten with "…".
+  every = Math.min(every, Math.max(1, Math.ceil(labels.length / 4)))
   const room = Math.max(band * every - gap, fontSize * 1.5)
   const shown: BandLabel[] = []
   for (let index = 0; index < labels.length; index += every) {
