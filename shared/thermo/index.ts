@@ -26,6 +26,8 @@ export {
 } from './units'
 export { registry, type KindDefinition } from './registry'
 export { NUCLEI } from './kinds/spin'
+export { levelPopulations } from './kinds/levels'
+export { boltzmannStatistics, molarFunctions, logGamma, logFactorial, binomialBig } from './numerics'
 export { ENUMERATION_LIMIT } from './kinds/microstates'
 export type { LevelsResult, LevelPopulation, LevelTableResult } from './kinds/levels'
 export type { VibrationResult } from './kinds/vibration'

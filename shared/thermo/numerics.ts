@@ -26,72 +26,121 @@ export interface LevelStatistics {
  * (McQuarrie, Statistical Mechanics, ch. 2; the shift is the usual log-sum-exp device).
  * Writes fractions and log10 fractions into the given arrays (when given) and returns the
  * thermodynamic moments. log10 fractions are exact arithmetic in logs, so they stay finite
- * for populations far below the smallest double.
+ * for populations far below the smallest double. Energies are multiplied by `energyScale`
+ * (J per input unit) so a column in the person's unit needs no converted copy.
  */
 export function boltzmannStatistics(
   energies: ArrayLike<number>,
   degeneracies: ArrayLike<number> | null,
   temperature: number,
-  fractions?: number[] | Float64Array,
-  log10Fractions?: number[] | Float64Array,
+  fractions?: Float64Array,
+  log10Fractions?: Float64Array,
   energyScale = 1,
 ): LevelStatistics {
   const count = energies.length
   const beta = energyScale / (BOLTZMANN_CONSTANT * temperature)
+  // Reduced energies βE in one typed array keep the hot loops monomorphic (one element kind).
+  const reduced = new Float64Array(count)
   let lowest = Infinity
-  for (let index = 0; index < count; index++) {
-    const energy = energies[index]!
-    if (energy < lowest) lowest = energy
+  if (energies instanceof Float64Array) {
+    for (let index = 0; index < count; index++) {
+      const value = beta * energies[index]!
+      reduced[index] = value
+      if (value < lowest) lowest = value
+    }
+  } else {
+    for (let index = 0; index < count; index++) {
+      const value = beta * energies[index]!
+      reduced[index] = value
+      if (value < lowest) lowest = value
+    }
   }
+  let weights: Float64Array | null = null
+  if (degeneracies !== null) {
+    weights = degeneracies instanceof Float64Array ? degeneracies : Float64Array.from(degeneracies)
+  }
+  const output = fractions ?? new Float64Array(count)
+  const moments = boltzmannKernel(reduced, weights, lowest, output, log10Fractions ?? null)
+  const kT = BOLTZMANN_CONSTANT * temperature
+  const lowestEnergy = lowest * kT
+  const lnFromLowest = Math.log(moments.sum)
+  return {
+    lnPartitionFunctionFromLowest: lnFromLowest,
+    lowestEnergy,
+    lnPartitionFunction: lnFromLowest - lowest,
+    meanEnergy: lowestEnergy + moments.meanReduced * kT,
+    energyVariance: moments.varianceReduced * kT * kT,
+    mostPopulatedIndex: moments.mostPopulatedIndex,
+  }
+}
+
+/**
+ * The hot loop of boltzmannStatistics on typed arrays: weights w_i = g_i e^{-(x_i - x_min)},
+ * their sum and first two moments, then normalised fractions and log10 fractions
+ * log10 p_i = log10 g_i - (x_i - x_min)/ln 10 - log10 Σw.
+ */
+export function boltzmannKernel(
+  reduced: Float64Array,
+  degeneracies: Float64Array | null,
+  lowest: number,
+  fractions: Float64Array,
+  log10Fractions: Float64Array | null,
+): { sum: number; meanReduced: number; varianceReduced: number; mostPopulatedIndex: number } {
+  const count = reduced.length
   let sum = 0
   let firstMoment = 0
   let secondMoment = 0
   let largest = -1
   let mostPopulatedIndex = 0
-  const store = fractions !== undefined
-  for (let index = 0; index < count; index++) {
-    const reduced = beta * (energies[index]! - lowest)
-    const weight = (degeneracies === null ? 1 : degeneracies[index]!) * Math.exp(-reduced)
-    if (store) fractions[index] = weight
-    if (weight > largest) {
-      largest = weight
-      mostPopulatedIndex = index
+  if (degeneracies === null) {
+    for (let index = 0; index < count; index++) {
+      const x = reduced[index]! - lowest
+      const weight = Math.exp(-x)
+      fractions[index] = weight
+      if (weight > largest) {
+        largest = weight
+        mostPopulatedIndex = index
+      }
+      sum += weight
+      firstMoment += weight * x
+      secondMoment += weight * x * x
     }
-    sum += weight
-    firstMoment += weight * reduced
-    secondMoment += weight * reduced * reduced
+  } else {
+    for (let index = 0; index < count; index++) {
+      const x = reduced[index]! - lowest
+      const weight = degeneracies[index]! * Math.exp(-x)
+      fractions[index] = weight
+      if (weight > largest) {
+        largest = weight
+        mostPopulatedIndex = index
+      }
+      sum += weight
+      firstMoment += weight * x
+      secondMoment += weight * x * x
+    }
   }
   const inverseSum = 1 / sum
-  const log10Sum = Math.log10(sum)
-  if (store) {
-    const writeLog = log10Fractions !== undefined
-    let lastDegeneracy = 1
-    let log10Degeneracy = 0
-    for (let index = 0; index < count; index++) {
-      fractions[index] = fractions[index]! * inverseSum
-      if (writeLog) {
-        const degeneracy = degeneracies === null ? 1 : degeneracies[index]!
+  for (let index = 0; index < count; index++) fractions[index] = fractions[index]! * inverseSum
+  if (log10Fractions !== null) {
+    const log10Sum = Math.log10(sum)
+    const inverseLn10 = 1 / LN10
+    if (degeneracies === null) {
+      for (let index = 0; index < count; index++) log10Fractions[index] = -(reduced[index]! - lowest) * inverseLn10 - log10Sum
+    } else {
+      let lastDegeneracy = 1
+      let log10Degeneracy = 0
+      for (let index = 0; index < count; index++) {
+        const degeneracy = degeneracies[index]!
         if (degeneracy !== lastDegeneracy) {
           lastDegeneracy = degeneracy
           log10Degeneracy = Math.log10(degeneracy)
         }
-        log10Fractions[index] = log10Degeneracy - (beta * (energies[index]! - lowest)) / LN10 - log10Sum
+        log10Fractions[index] = log10Degeneracy - (reduced[index]! - lowest) * inverseLn10 - log10Sum
       }
     }
   }
   const meanReduced = firstMoment * inverseSum
-  const varianceReduced = Math.max(0, secondMoment * inverseSum - meanReduced * meanReduced)
-  const kT = BOLTZMANN_CONSTANT * temperature
-  const lowestEnergy = lowest * energyScale
-  const lnFromLowest = Math.log(sum)
-  return {
-    lnPartitionFunctionFromLowest: lnFromLowest,
-    lowestEnergy,
-    lnPartitionFunction: lnFromLowest - lowestEnergy / kT,
-    meanEnergy: lowestEnergy + meanReduced * kT,
-    energyVariance: varianceReduced * kT * kT,
-    mostPopulatedIndex,
-  }
+  return { sum, meanReduced, varianceReduced: Math.max(0, secondMoment * inverseSum - meanReduced * meanReduced), mostPopulatedIndex }
 }
 
 /** Molar thermodynamic functions of a level system (canonical ensemble of independent particles). */

@@ -159,8 +159,8 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
     degeneracies = table!.degeneracies ?? null
     scale = table!.energyUnit.factor
   }
-  const fractions: number[] = new Array<number>(count)
-  const log10Fractions: number[] = new Array<number>(count)
+  const fractions = new Float64Array(count)
+  const log10Fractions = new Float64Array(count)
   const statistics = boltzmannStatistics(energies, degeneracies, temperature, fractions, log10Fractions, scale)
   const molar = molarFunctions(statistics, temperature)
   const particleCount = input.amount
@@ -231,8 +231,8 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
       energyUnit: table!.energyUnit.text,
       energies: Array.isArray(table!.energies) ? (table!.energies as number[]) : Array.from(table!.energies),
       degeneracies: table!.degeneracies ? (Array.isArray(table!.degeneracies) ? (table!.degeneracies as number[]) : Array.from(table!.degeneracies)) : null,
-      fractions,
-      log10Fractions,
+      fractions: plainArray(fractions),
+      log10Fractions: plainArray(log10Fractions),
     }
     if (counts) {
       tableResult.counts = counts
@@ -241,6 +241,24 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
     result.levelTable = tableResult
   }
   return result
+}
+
+/** Copies a typed array into a plain array (results must be plain JSON for signed records). */
+function plainArray(values: Float64Array): number[] {
+  const plain = new Array<number>(values.length).fill(0)
+  for (let index = 0; index < values.length; index++) plain[index] = values[index]!
+  return plain
+}
+
+/**
+ * Bulk populations for large level sets in typed arrays (charts, workers): energies in J,
+ * degeneracies or null, temperature in K. Same formulas as `levels`, without a JSON result.
+ */
+export function levelPopulations(energies: Float64Array, degeneracies: Float64Array | null, temperature: number) {
+  const fractions = new Float64Array(energies.length)
+  const log10Fractions = new Float64Array(energies.length)
+  const statistics = boltzmannStatistics(energies, degeneracies, temperature, fractions, log10Fractions)
+  return { fractions, log10Fractions, partitionFunctionFromLowest: Math.exp(statistics.lnPartitionFunctionFromLowest), statistics }
 }
 
 export const levelsKind = {
