@@ -129,3 +129,147 @@ export type Entry = typeof entries.$inferSelect
 export type AuditEvent = typeof auditEvents.$inferSelect
 export type Role = (typeof roleEnum.enumValues)[number]
 export type EntryState = (typeof entryStateEnum.enumValues)[number]
+
+// ---------------------------------------------------------------------------------------
+// Signed records (issue: signatures), data files, exports and integration tokens.
+// Frozen rows (versions, signatures, keys) are guarded by triggers in the migrations.
+
+export const signingMeaningEnum = pgEnum('signing_meaning', ['authored', 'witnessed', 'reviewed'])
+
+/** A data file attached to an entry. Bytes live in Nitro storage under `storageKey`. */
+export const attachments = pgTable('attachments', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  entryId: uuid('entry_id').notNull().references(() => entries.id),
+  name: text('name').notNull(),
+  storageKey: text('storage_key').notNull(),
+  mediaType: text('media_type').notNull(),
+  size: integer('size').notNull(),
+  sha256: text('sha256').notNull(),
+  uploadedBy: uuid('uploaded_by').notNull().references(() => people.id),
+  uploadedAt: timestamp('uploaded_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  /** Set when a draft's author removes the file; a file in a signed version stays. */
+  detachedAt: timestamp('detached_at', { withTimezone: true, mode: 'date' }),
+}, table => [index('attachments_entry').on(table.entryId)])
+
+/** A frozen version of an entry: exactly what was signed. Never updated or deleted. */
+export const entryVersions = pgTable('entry_versions', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  entryId: uuid('entry_id').notNull().references(() => entries.id),
+  version: integer('version').notNull(),
+  supersedesVersion: integer('supersedes_version'),
+  title: text('title').notNull(),
+  content: jsonb('content').notNull(),
+  /** The canonical record document (shared/records) whose hash was signed. */
+  record: jsonb('record').notNull(),
+  recordHash: text('record_hash').notNull(),
+  frozenAt: timestamp('frozen_at', { withTimezone: true, mode: 'date' }).notNull(),
+  frozenBy: uuid('frozen_by').notNull().references(() => people.id),
+}, table => [
+  uniqueIndex('entry_versions_entry_version').on(table.entryId, table.version),
+  index('entry_versions_frozen').on(table.frozenAt),
+])
+
+/** Ed25519 public keys, kept forever; the secret key is stored only sealed. */
+export const signingKeys = pgTable('signing_keys', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  personId: uuid('person_id').notNull().references(() => people.id),
+  publicKey: text('public_key').notNull(),
+  fingerprint: text('fingerprint').notNull(),
+  sealedSecretKey: jsonb('sealed_secret_key').notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  retiredAt: timestamp('retired_at', { withTimezone: true, mode: 'date' }),
+  retiredReason: text('retired_reason'),
+}, table => [
+  uniqueIndex('signing_keys_fingerprint').on(table.fingerprint),
+  index('signing_keys_person').on(table.personId),
+  // At most one active key per person.
+  uniqueIndex('signing_keys_one_active').on(table.personId).where(sql`retired_at IS NULL`),
+])
+
+/** Single-use signing challenges: server time and nonce for a statement; expire in minutes. */
+export const signingChallenges = pgTable('signing_challenges', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  nonce: text('nonce').notNull(),
+  personId: uuid('person_id').notNull().references(() => people.id),
+  entryId: uuid('entry_id').notNull().references(() => entries.id),
+  version: integer('version').notNull(),
+  meaning: signingMeaningEnum('meaning').notNull(),
+  recordHash: text('record_hash').notNull(),
+  issuedAt: timestamp('issued_at', { withTimezone: true, mode: 'date' }).notNull(),
+  expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true, mode: 'date' }),
+}, table => [uniqueIndex('signing_challenges_nonce').on(table.nonce)])
+
+/** A signature on a frozen entry version. Never updated or deleted. */
+export const signatures = pgTable('signatures', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  entryVersionId: uuid('entry_version_id').notNull().references(() => entryVersions.id),
+  signerId: uuid('signer_id').notNull().references(() => people.id),
+  keyId: uuid('key_id').notNull().references(() => signingKeys.id),
+  meaning: signingMeaningEnum('meaning').notNull(),
+  statement: jsonb('statement').notNull(),
+  statementHash: text('statement_hash').notNull(),
+  signature: text('signature').notNull(),
+  signedAt: timestamp('signed_at', { withTimezone: true, mode: 'date' }).notNull(),
+  countersignsId: uuid('countersigns_id'),
+}, table => [
+  index('signatures_version').on(table.entryVersionId),
+  index('signatures_signer').on(table.signerId),
+  // One author signature and one countersignature per version: parallel witnesses race here.
+  uniqueIndex('signatures_one_author').on(table.entryVersionId).where(sql`meaning = 'authored'`),
+  uniqueIndex('signatures_one_witness').on(table.entryVersionId).where(sql`meaning = 'witnessed'`),
+])
+
+/** An author's request that a named witness countersign a version; resolved once. */
+export const witnessRequests = pgTable('witness_requests', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  entryId: uuid('entry_id').notNull().references(() => entries.id),
+  version: integer('version').notNull(),
+  requestedBy: uuid('requested_by').notNull().references(() => people.id),
+  witnessId: uuid('witness_id').notNull().references(() => people.id),
+  requestedAt: timestamp('requested_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  resolvedAt: timestamp('resolved_at', { withTimezone: true, mode: 'date' }),
+  outcome: text('outcome'),
+  reason: text('reason'),
+}, table => [index('witness_requests_witness').on(table.witnessId), index('witness_requests_entry').on(table.entryId)])
+
+export const exportStatusEnum = pgEnum('export_status', ['queued', 'running', 'done', 'failed', 'cancelled'])
+
+/** A bulk export run as a job, resumable after a restart. */
+export const exportJobs = pgTable('export_jobs', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  requestedBy: uuid('requested_by').notNull().references(() => people.id),
+  parameters: jsonb('parameters').notNull(),
+  status: exportStatusEnum('status').notNull().default('queued'),
+  total: integer('total').notNull().default(0),
+  done: integer('done').notNull().default(0),
+  storageKey: text('storage_key'),
+  error: text('error'),
+  createdAt,
+  startedAt: timestamp('started_at', { withTimezone: true, mode: 'date' }),
+  finishedAt: timestamp('finished_at', { withTimezone: true, mode: 'date' }),
+  heartbeatAt: timestamp('heartbeat_at', { withTimezone: true, mode: 'date' }),
+}, table => [index('export_jobs_status').on(table.status)])
+
+/** Bearer tokens for host systems: only a hash is stored; shown once at issue. */
+export const apiTokens = pgTable('api_tokens', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  name: text('name').notNull(),
+  tokenHash: text('token_hash').notNull(),
+  prefix: text('prefix').notNull(),
+  scopes: text('scopes').array().notNull(),
+  createdBy: uuid('created_by').notNull().references(() => people.id),
+  /** The person the token acts for (their notebooks and roles bound what it can reach). */
+  actsFor: uuid('acts_for').notNull().references(() => people.id),
+  createdAt,
+  lastUsedAt: timestamp('last_used_at', { withTimezone: true, mode: 'date' }),
+  revokedAt: timestamp('revoked_at', { withTimezone: true, mode: 'date' }),
+}, table => [uniqueIndex('api_tokens_hash').on(table.tokenHash)])
+
+export type Attachment = typeof attachments.$inferSelect
+export type EntryVersion = typeof entryVersions.$inferSelect
+export type SigningKey = typeof signingKeys.$inferSelect
+export type Signature = typeof signatures.$inferSelect
+export type SigningChallenge = typeof signingChallenges.$inferSelect
+export type ExportJob = typeof exportJobs.$inferSelect
+export type ApiToken = typeof apiTokens.$inferSelect
