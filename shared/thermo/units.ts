@@ -132,7 +132,8 @@ export function parseQuantity(text: unknown, path: string, example = '298.15 K')
     inputError(path, `expected a number followed by a unit, such as '${example}', got ${describeValue(text)}`)
   }
   const magnitude = Number.parseFloat(match[1]!)
-  const unitText = match[2]!
+  // "2143.3 1/cm" means per centimetre; mathjs reads "/cm" after a number.
+  const unitText = match[2]!.replace(/^1\s*\//, '/')
   if (unitText === '') {
     inputError(path, `a unit is required: write for example '${example}', not '${text.trim()}'`)
   }
