@@ -14,6 +14,8 @@ import { energyField } from './common'
 
 /** At most this many distributions are listed. */
 export const ENUMERATION_LIMIT = 200_000
+/** Oscillator distributions are listed (dense, n_0..n_Q) only up to this many quanta. */
+const MAX_ENUMERATED_QUANTA = 100_000
 /** Exact W for each distribution up to this many particles. */
 const EXACT_PARTICLE_LIMIT = 1000
 
@@ -83,6 +85,26 @@ function lnMultinomial(particles: number, occupations: ArrayLike<number>): numbe
 
 class LimitReached extends Error {}
 
+/**
+ * Number of partitions of Q into at most N parts (= parts no larger than N), counted by the
+ * standard dynamic programme over part sizes (Andrews, The Theory of Partitions, ch. 1), capped
+ * at cap + 1. p(k) > 200,000 for k ≥ 50, so min(Q, N) ≥ 50 exceeds the limit at once.
+ */
+export function partitionCount(quanta: number, particles: number, cap: number): number {
+  const largestPart = Math.min(quanta, particles)
+  if (largestPart >= 50 && cap < 204_226) return cap + 1
+  if (largestPart >= 2 && Math.floor(quanta / 2) + 1 > cap) return cap + 1
+  const ways = new Float64Array(quanta + 1)
+  ways[0] = 1
+  for (let part = 1; part <= largestPart; part++) {
+    for (let total = part; total <= quanta; total++) {
+      const value = ways[total]! + ways[total - part]!
+      ways[total] = value > cap ? cap + 1 : value
+    }
+  }
+  return ways[quanta]!
+}
+
 /** Microstate counting for the Einstein solid or for particles on given levels with a total energy. */
 export function computeMicrostates(input: MicrostatesInput, warnings: string[] = []): MicrostatesResult {
   return input.oscillators ? oscillatorMicrostates(input.oscillators.count, input.oscillators.quanta, warnings) : levelMicrostates(input.levels!, warnings)
@@ -124,19 +146,19 @@ function oscillatorMicrostates(particles: number, quanta: number, warnings: stri
   for (let j = 0; j <= reportLength; j++) boltzmann.push(particles * (1 - ratio) * Math.pow(ratio, j))
   const lnBoltzmann = lnMultinomial(particles, boltzmann)
   const raw: number[][] = []
-  let complete = true
-  if (quanta <= 100_000) {
+  const count = quanta <= MAX_ENUMERATED_QUANTA ? partitionCount(quanta, particles, ENUMERATION_LIMIT) : Infinity
+  const complete = count <= ENUMERATION_LIMIT
+  if (complete) {
     // Partitions of Q into at most N parts, parts in non-increasing order.
     const parts: number[] = []
-    const emit = () => {
-      if (raw.length >= ENUMERATION_LIMIT) throw new LimitReached()
-      const occupations = new Array<number>(quanta + 1).fill(0)
-      occupations[0] = particles - parts.length
-      for (const part of parts) occupations[part]!++
-      raw.push(occupations)
-    }
     const walk = (remaining: number, largest: number) => {
-      if (remaining === 0) return emit()
+      if (remaining === 0) {
+        const occupations = new Array<number>(quanta + 1).fill(0)
+        occupations[0] = particles - parts.length
+        for (const part of parts) occupations[part]!++
+        raw.push(occupations)
+        return
+      }
       if (parts.length === particles) return
       for (let part = Math.min(remaining, largest); part >= 1; part--) {
         parts.push(part)
@@ -144,19 +166,14 @@ function oscillatorMicrostates(particles: number, quanta: number, warnings: stri
         parts.pop()
       }
     }
-    try {
-      walk(quanta, quanta)
-    } catch (error) {
-      if (!(error instanceof LimitReached)) throw error
-      complete = false
-    }
-  } else complete = false
+    walk(quanta, quanta)
+  }
   let message: string | null = null
   let distributions: Distribution[] = []
   let mostProbable: Distribution | null = null
   if (complete) ({ distributions, mostProbable } = finishDistributions(particles, raw, lnTotal))
   else {
-    message = `There are more than ${ENUMERATION_LIMIT.toLocaleString('en-US')} distributions of ${quanta} quanta over ${particles} oscillators; enumeration stopped. The dominant distribution is estimated by the Boltzmann occupations, with ln W from log-gamma.`
+    message = `${quanta > MAX_ENUMERATED_QUANTA ? `Distributions are listed only up to ${MAX_ENUMERATED_QUANTA.toLocaleString('en-US')} quanta` : `There are more than ${ENUMERATION_LIMIT.toLocaleString('en-US')} distributions of ${quanta} quanta over ${particles} oscillators`}; enumeration stopped. The dominant distribution is estimated by the Boltzmann occupations, with ln W from log-gamma.`
     warnings.push(message)
   }
   return {

@@ -1,0 +1,197 @@
+// Behaviour of each kind, the registry and sweep/solveTemperature.
+import { describe, expect, it } from 'vitest'
+import { BOLTZMANN_CONSTANT, ENGINE_VERSION, GAS_CONSTANT, SECOND_RADIATION_CONSTANT, evaluate, listKinds, registry } from '../../../shared/thermo/index'
+
+// Second radiation constant in cm K, so x = c2 ν̃ / T for ν̃ in cm^-1.
+const C2 = SECOND_RADIATION_CONSTANT * 100
+
+describe('registry and listKinds', () => {
+  it('lists all eight kinds with titles, descriptions and valid example inputs', () => {
+    const kinds = listKinds()
+    expect(kinds.map((kind) => kind.kind).sort()).toEqual(['boltzmannPlot', 'levels', 'microstates', 'rotation', 'solveTemperature', 'spin', 'sweep', 'thermochemistry', 'vibration'].sort())
+    for (const kind of kinds) {
+      expect(kind.title.length).toBeGreaterThan(3)
+      expect(kind.description).toMatch(/\.$/)
+      expect(registry[kind.kind]!.version).toBe(kind.version)
+      const evaluation = evaluate({ kind: kind.kind, input: kind.exampleInput })
+      expect(evaluation.engineVersion).toBe(`${ENGINE_VERSION}/${kind.kind}@${kind.version}`)
+      // Results must survive JSON unchanged (they go into signed records).
+      expect(JSON.parse(JSON.stringify(evaluation.result))).toEqual(evaluation.result)
+    }
+  })
+})
+
+describe('levels', () => {
+  it('gives the same populations from text rows and from a level table', () => {
+    const rows = evaluate({ kind: 'levels', input: { levels: [{ energy: '0 cm^-1' }, { energy: '150 cm^-1', degeneracy: 3 }, { energy: '400 cm^-1', degeneracy: 5 }], temperature: '300 K', amount: 1000 } }).result
+    const table = evaluate({ kind: 'levels', input: { levelTable: { energyUnit: 'cm^-1', energies: [0, 150, 400], degeneracies: [1, 3, 5] }, temperature: '300 K', amount: 1000 } }).result
+    rows.levels.forEach((level: { fraction: number; count: number }, index: number) => {
+      expect(table.levelTable.fractions[index]).toBeCloseTo(level.fraction, 14)
+      expect(table.levelTable.counts[index]).toBeCloseTo(level.count, 10)
+    })
+    expect(table.molarEntropy).toBeCloseTo(rows.molarEntropy, 10)
+  })
+  it('flags counts below one particle and reports far-underflowing levels by log10', () => {
+    const evaluation = evaluate({ kind: 'levels', input: { levels: [{ energy: '0 eV' }, { energy: '5 eV' }, { energy: '100 eV' }], temperature: '300 K', amount: '1 mol' } })
+    const [, middle, top] = evaluation.result.levels
+    expect(middle.belowOneParticle).toBe(true)
+    expect(top.fraction).toBe(0)
+    // log10 p = -E/(kT ln 10) for a level far above a single ground level (McQuarrie ch. 2).
+    expect(top.log10Fraction).toBeCloseTo(-(100 * 1.602176634e-19) / (BOLTZMANN_CONSTANT * 300 * Math.LN10), 6)
+    expect(evaluation.warnings.join(' ')).toMatch(/fewer than one particle/)
+    expect(evaluation.warnings.join(' ')).toMatch(/log10Fraction/)
+  })
+  it('gives the two-level heat capacity (Schottky anomaly peak 0.439 R at kT ≈ 0.417 Δ)', () => {
+    // Peak of C/R = x² e^x/(1+e^x)² is 0.4392 at x = Δ/kT = 2.3994 (Kittel & Kroemer, Thermal Physics).
+    const result = evaluate({ kind: 'levels', input: { levels: [{ energy: '0 K' }, { energy: '2.3994 K' }], temperature: '1 K' } }).result
+    expect(result.molarHeatCapacity / GAS_CONSTANT).toBeCloseTo(0.4392, 4)
+  })
+  it('accepts every documented energy form', () => {
+    for (const energy of ['2143.3 cm^-1', '2143.3 /cm', '0.36 eV', '12 kJ/mol', '400 MHz', '300 K', '1e-20 J', '3 kcal/mol']) {
+      expect(() => evaluate({ kind: 'levels', input: { levels: [{ energy: '0 J' }, { energy }], temperature: '25 degC' } })).not.toThrow()
+    }
+  })
+})
+
+describe('vibration', () => {
+  it('harmonic closed form matches an explicit sum', () => {
+    const harmonic = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '500 cm^-1' }], temperature: '800 K', maxQuantum: 200 } }).result.modes[0]
+    const x = (500 * C2) / 800
+    let sum = 0
+    for (let v = 0; v < 2000; v++) sum += Math.exp(-v * x)
+    expect(harmonic.partitionFunction).toBeCloseTo(sum, 12)
+    expect(harmonic.populations[1].fraction).toBeCloseTo(Math.exp(-x) / sum, 12)
+  })
+  it('anharmonic ladder stops at the last bound level and warns when it matters', () => {
+    // Morse-like ladder: ω_e = 200, ω_e x_e = 20 cm^-1 → bound levels v = 0..4 (v < ω_e/2ω_e x_e = 5).
+    const evaluation = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '200 cm^-1', anharmonicity: '20 cm^-1' }], temperature: '2000 K' } })
+    expect(evaluation.result.modes[0].highestBoundLevel).toBe(4)
+    expect(evaluation.warnings.join(' ')).toMatch(/dissociation/)
+  })
+  it('well-bottom zero lowers q by e^{-x/2} and adds the zero-point energy to U', () => {
+    const ground = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '1000 cm^-1' }], temperature: '500 K' } }).result
+    const bottom = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '1000 cm^-1' }], temperature: '500 K', energyZero: 'wellBottom' } }).result
+    const x = (1000 * C2) / 500
+    expect(bottom.partitionFunction / ground.partitionFunction).toBeCloseTo(Math.exp(-x / 2), 12)
+    expect(bottom.molarInternalEnergy - ground.molarInternalEnergy).toBeCloseTo((GAS_CONSTANT * 500 * x) / 2, 6)
+    expect(bottom.molarEntropy).toBeCloseTo(ground.molarEntropy, 10)
+  })
+})
+
+describe('rotation', () => {
+  it('CO-like rotor at 298.15 K: q ≈ 107.8 and J_max = 7', () => {
+    // CO B0 = 1.9225 cm^-1 (Huber & Herzberg); q ≈ kT/hcB = 107.8 and J_max ≈ √(kT/2hcB) - ½ = 6.8 (Atkins, Topic 12C).
+    const result = evaluate({ kind: 'rotation', input: { rotationalConstant: '1.9225 cm^-1', temperature: '298.15 K' } }).result
+    expect(result.partitionFunction).toBeCloseTo(108.12, 1)
+    expect(result.mostPopulatedJ).toBe(7)
+    expect(result.mostPopulatedJContinuous).toBeCloseTo(6.84, 1)
+    const sum = result.populations.reduce((total: number, level: { fraction: number }) => total + level.fraction, 0)
+    expect(sum).toBeCloseTo(1, 12)
+  })
+  it('nuclear-spin weights: H2-like rotor at 20 K is mostly J = 0 (para) and J = 1 (ortho)', () => {
+    // H2 B = 60.85 cm^-1; weights 1 (even J, para) and 3 (odd J, ortho) (Atkins, Topic 12D).
+    const result = evaluate({ kind: 'rotation', input: { rotationalConstant: '60.85 cm^-1', nuclearSpinWeights: { even: 1, odd: 3 }, temperature: '20 K' } }).result
+    expect(result.populations[0].J).toBe(0)
+    expect(result.populations[0].fraction + result.populations[1].fraction).toBeCloseTo(1, 6)
+  })
+  it('zero weights leave forbidden J out instead of reporting -Infinity', () => {
+    const result = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', symmetryNumber: 2, nuclearSpinWeights: { even: 1, odd: 0 }, temperature: '300 K' } }).result
+    expect(result.populations.every((level: { J: number }) => level.J % 2 === 0)).toBe(true)
+    // With weights (1, 0) and σ = 2 the high-temperature q is T/(4Θ); the exact sum agrees closely.
+    expect(result.partitionFunction / result.correctedHighTemperaturePartitionFunction).toBeCloseTo(1, 3)
+  })
+  it('truncation by maxJ is reported', () => {
+    const evaluation = evaluate({ kind: 'rotation', input: { rotationalConstant: '1.9225 cm^-1', temperature: '298.15 K', maxJ: 5 } })
+    expect(evaluation.result.highestJ).toBe(5)
+    expect(evaluation.warnings.join(' ')).toMatch(/maxJ/)
+  })
+})
+
+describe('spin', () => {
+  it('Larmor frequency input gives the same field', () => {
+    const result = evaluate({ kind: 'spin', input: { nucleus: '1H', larmorFrequency: '400 MHz', temperature: '298.15 K' } }).result
+    expect(result.field).toBeCloseTo(9.3947, 3)
+  })
+  it('15N (negative γ) has negative polarization; spin-1 has three levels', () => {
+    expect(evaluate({ kind: 'spin', input: { nucleus: '15N', field: '9.4 T', temperature: '300 K' } }).result.polarization).toBeLessThan(0)
+    const deuteron = evaluate({ kind: 'spin', input: { gyromagneticRatio: '41.065 rad/(us T)', spinQuantumNumber: 1, field: '9.4 T', temperature: '300 K' } }).result
+    expect(deuteron.levels.length).toBe(3)
+    expect(deuteron.polarization / deuteron.highTemperaturePolarization).toBeCloseTo(1, 5)
+  })
+})
+
+describe('microstates', () => {
+  it('N = Q = 30: 5604 distributions whose W sum to C(59, 30)', () => {
+    const result = evaluate({ kind: 'microstates', input: { oscillators: { count: 30, quanta: 30 } } }).result
+    expect(result.distributionCount).toBe(5604) // p(30) = 5604 partitions (OEIS A000041)
+    expect(result.totalMicrostates).toBe('59132290782430712') // C(59, 30)
+    const probability = result.distributions.reduce((sum: number, distribution: { probability: number }) => sum + distribution.probability, 0)
+    expect(probability).toBeCloseTo(1, 10)
+  })
+  it('beyond the enumeration limit it stops with a message and uses log-gamma', () => {
+    const evaluation = evaluate({ kind: 'microstates', input: { oscillators: { count: 1000, quanta: 1000 } } })
+    expect(evaluation.result.enumerationComplete).toBe(false)
+    expect(evaluation.result.message).toMatch(/enumeration stopped/)
+    expect(evaluation.result.boltzmannPrediction.shareOfLnTotal).toBeGreaterThan(0.9)
+    expect(evaluation.result.boltzmannPrediction.shareOfLnTotal).toBeLessThanOrEqual(1.0000001)
+  })
+  it('particles on levels with a total energy', () => {
+    // Three distinguishable particles on levels 0, 1, 2, 3 (units ε) with E = 3ε: {3,0,0,0}... W sums to 10.
+    const result = evaluate({ kind: 'microstates', input: { levels: { energies: ['0 K', '1 K', '2 K', '3 K'], particles: 3, totalEnergy: '3 K' } } }).result
+    expect(result.distributionCount).toBe(3)
+    expect(result.totalMicrostates).toBe('10')
+    expect(result.mostProbable.occupations).toEqual([1, 1, 1, 0])
+  })
+})
+
+describe('boltzmannPlot', () => {
+  it('recovers the temperature of synthetic lines', () => {
+    const temperature = 4321
+    const lines = [1000, 5000, 12000, 20000].map((wavenumber, index) => ({
+      upperEnergy: `${wavenumber} cm^-1`,
+      degeneracy: index + 1,
+      intensity: (index + 1) * Math.exp(-(wavenumber * C2) / temperature) * 7,
+      uncertainty: 0.001 * (index + 1) * Math.exp(-(wavenumber * C2) / temperature) * 7,
+    }))
+    const result = evaluate({ kind: 'boltzmannPlot', input: { lines } }).result
+    expect(result.temperature).toBeCloseTo(temperature, 5)
+    expect(result.rSquared).toBeCloseTo(1, 10)
+    expect(result.temperatureUncertainty).toBeGreaterThan(0)
+  })
+})
+
+describe('thermochemistry', () => {
+  it('G - H(0) = H - H(0) - TS and Cp - Cv = R', () => {
+    const result = evaluate({ kind: 'thermochemistry', input: { molarMass: '18.015 g/mol', shape: 'nonlinear', rotationalConstants: ['27.88 cm^-1', '14.51 cm^-1', '9.28 cm^-1'], symmetryNumber: 2, vibrations: [{ wavenumber: '3657 cm^-1' }, { wavenumber: '1595 cm^-1' }, { wavenumber: '3756 cm^-1' }], temperature: '298.15 K' } })
+    const totals = evaluation(result).totals
+    expect(totals.gibbsMinusH0).toBeCloseTo(totals.enthalpyMinusH0 - 298.15 * totals.entropy, 6)
+    expect(totals.heatCapacityP - totals.heatCapacityV).toBeCloseTo(GAS_CONSTANT, 10)
+    // H2O: S°(298.15 K) = 188.835 J/(mol K) (CODATA Key Values 1989); RRHO lands within about 0.2.
+    expect(Math.abs(totals.entropy - 188.835)).toBeLessThan(0.3)
+  })
+  it('warns about soft modes', () => {
+    const evaluation = evaluate({ kind: 'thermochemistry', input: { molarMass: '100 g/mol', shape: 'nonlinear', rotationalConstants: ['0.1 cm^-1', '0.05 cm^-1', '0.03 cm^-1'], vibrations: [{ wavenumber: '45 cm^-1' }], temperature: '298.15 K' } })
+    expect(evaluation.warnings.join(' ')).toMatch(/below about 100 cm\^-1/)
+  })
+})
+
+function evaluation(value: { result: any }) {
+  return value.result
+}
+
+describe('sweep and solveTemperature', () => {
+  const baseInput = { levels: [{ energy: '0 cm^-1' }, { energy: '200 cm^-1', degeneracy: 3 }] }
+  it('sweeps a level fraction over a logarithmic grid', () => {
+    const result = evaluate({ kind: 'sweep', input: { kind: 'levels', baseInput, start: '10 K', stop: '1000 K', points: 3, spacing: 'logarithmic', outputs: ['levels[1].fraction', 'partitionFunction'] } }).result
+    expect(result.temperatures[1]).toBeCloseTo(100, 10)
+    const x = (200 * C2) / 100
+    expect(result.series[0].values[1]).toBeCloseTo((3 * Math.exp(-x)) / (1 + 3 * Math.exp(-x)), 12)
+    expect(result.series[1].output).toBe('partitionFunction')
+  })
+  it('solves for the temperature where the upper level holds half the particles', () => {
+    // 3 e^{-x} = 1 → x = ln 3 → T = hcν̃/(k ln 3).
+    const result = evaluate({ kind: 'solveTemperature', input: { kind: 'levels', baseInput, output: 'levels[1].fraction', target: 0.5, lower: '10 K', upper: '2000 K' } }).result
+    expect(result.temperature).toBeCloseTo((200 * C2) / Math.log(3), 6)
+    expect(result.value).toBeCloseTo(0.5, 10)
+  })
+})
