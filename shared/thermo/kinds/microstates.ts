@@ -138,7 +138,7 @@ function finishDistributions(particles: number, raw: number[][], lnTotal: number
 
 function oscillatorMicrostates(particles: number, quanta: number, warnings: string[]): MicrostatesResult {
   const lnTotal = logBinomial(quanta + particles - 1, quanta)
-  const exactTotal = Math.min(quanta, particles - 1) <= 20_000 ? binomialBig(quanta + particles - 1, quanta) : null
+  const exactTotal = Math.min(quanta, particles - 1) <= 2_000 ? binomialBig(quanta + particles - 1, quanta) : null
   // Boltzmann occupations n_j = N (1 - x) x^j with x = Q/(N + Q) (geometric distribution).
   const ratio = quanta / (particles + quanta)
   const boltzmann: number[] = []
