@@ -13,6 +13,8 @@ describe('sign-in and sign-out', () => {
     const cookieHeader = reply.headers.getSetCookie().join('\n')
     expect(cookieHeader).toMatch(/HttpOnly/i)
     expect(cookieHeader).toMatch(/SameSite=Lax/i)
+    // Sessions expire: eight hours (nuxt.config.ts runtimeConfig.session.maxAge).
+    expect(cookieHeader).toMatch(/Max-Age=28800/i)
     expect((await client.get('/api/auth/me')).status).toBe(200)
     expect((await client.post('/api/auth/logout')).status).toBe(200)
     expect((await client.get('/api/auth/me')).status).toBe(401)
