@@ -28,7 +28,7 @@ beforeAll(async () => {
 
 interface RouteCase {
   name: string
-  method: 'GET' | 'POST' | 'PATCH' | 'PUT'
+  method: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE'
   path: () => string
   body?: (who: Who) => unknown
   expect: Record<Who, number>
@@ -59,6 +59,12 @@ const routes: RouteCase[] = [
   { name: 'audit chain check', method: 'GET', path: () => '/api/audit/verify', expect: recordsOnly },
   { name: 'calculation kinds', method: 'GET', path: () => '/api/calculations/kinds', expect: anyoneSignedIn },
   { name: 'evaluate a calculation', method: 'POST', path: () => '/api/calculations', body: () => ({ kind: 'levels', input: { temperature: '300 K', levels: [{ energy: '0 cm^-1' }, { energy: '200 cm^-1', degeneracy: 2 }] } }), expect: anyoneSignedIn },
+  { name: 'list API tokens', method: 'GET', path: () => '/api/admin/tokens', expect: adminOnly(200) },
+  { name: 'issue an API token', method: 'POST', path: () => '/api/admin/tokens', body: () => ({ name: 'perm check', actsFor: ids.priya, scopes: ['records:read'] }), expect: adminOnly(201) },
+  { name: 'revoke an unknown API token', method: 'DELETE', path: () => '/api/admin/tokens/00000000-0000-4000-8000-000000000000', expect: adminOnly(404) },
+  // Bearer-token routes ignore session cookies: without a token everyone gets 401.
+  { name: 'v1 notebooks without a token', method: 'GET', path: () => '/api/v1/notebooks', expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
+  { name: 'v1 evaluate without a token', method: 'POST', path: () => '/api/v1/calculations', body: () => ({ kind: 'levels', input: {} }), expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
 ]
 
 describe('route permissions', () => {

@@ -72,6 +72,7 @@ export default async function setup(project: TestProject) {
       NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
       NUXT_DEMO_MODE: 'true',
       THERMOTOME_TRUST_PROXY: '1',
+      THERMOTOME_API_RATE_PER_MINUTE: '30',
       NUXT_PUBLIC_DEMO_MODE: 'true',
       THERMOTOME_DATA_DIR: `${root}/test-artifacts/data`,
     },

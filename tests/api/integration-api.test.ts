@@ -1,0 +1,131 @@
+import { beforeAll, describe, expect, it } from 'vitest'
+import { evaluate } from '../../shared/thermo'
+import { as, baseURL, type Client } from '../support/http'
+
+let admin: Client
+let people: { id: string, email: string }[]
+let infraredId: string
+const personId = (prefix: string) => people.find(p => p.email.startsWith(prefix))!.id
+
+async function bearer(token: string | null, method: string, path: string, body?: unknown) {
+  const headers: Record<string, string> = {}
+  if (token) headers.authorization = `Bearer ${token}`
+  if (body !== undefined) headers['content-type'] = 'application/json'
+  const response = await fetch(`${baseURL()}${path}`, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) })
+  const text = await response.text()
+  let parsed: any = text
+  try { parsed = JSON.parse(text) } catch { /* not JSON */ }
+  return { status: response.status, body: parsed, headers: response.headers }
+}
+
+async function issue(actsFor: string, scopes: string[]) {
+  const reply = await admin.post('/api/admin/tokens', { name: `host ${scopes.join('+')} ${Date.now()}`, actsFor, scopes })
+  expect(reply.status).toBe(201)
+  expect(reply.body.token).toMatch(/^tmt_/)
+  return reply.body as { token: string, id: string }
+}
+
+beforeAll(async () => {
+  admin = await as('hana')
+  people = (await admin.get('/api/people')).body.people
+  infraredId = (await admin.get('/api/notebooks')).body.notebooks.find((n: { name: string }) => n.name.startsWith('Infrared')).id
+})
+
+describe('API tokens', () => {
+  it('are shown once, stored only as a hash, and listed without the secret', async () => {
+    const { token, id } = await issue(personId('amara'), ['records:read'])
+    const listed = (await admin.get('/api/admin/tokens')).body.tokens.find((t: { id: string }) => t.id === id)
+    expect(JSON.stringify(listed)).not.toContain(token)
+    expect(token.startsWith(listed.prefix)).toBe(true)
+  })
+
+  it('answer 401 when missing, malformed or unknown, 403 when under-scoped', async () => {
+    expect((await bearer(null, 'GET', '/api/v1/notebooks')).status).toBe(401)
+    expect((await bearer('tmt_not-a-real-token', 'GET', '/api/v1/notebooks')).status).toBe(401)
+    const { token } = await issue(personId('amara'), ['records:read'])
+    const write = await bearer(token, 'POST', `/api/v1/notebooks/${infraredId}/entries`, { title: 'Not allowed' })
+    expect(write.status).toBe(403)
+    expect(write.body.message).toMatch(/entries:write/)
+    // A session cookie is not a token, and a token is not a session.
+    expect((await bearer(token, 'GET', '/api/notebooks')).status).toBe(401)
+  })
+
+  it('stop working at once when revoked, and the last use is recorded', async () => {
+    const { token, id } = await issue(personId('amara'), ['records:read'])
+    expect((await bearer(token, 'GET', '/api/v1/notebooks')).status).toBe(200)
+    const listed = (await admin.get('/api/admin/tokens')).body.tokens.find((t: { id: string }) => t.id === id)
+    expect(listed.lastUsedAt).not.toBeNull()
+    expect((await admin.request('DELETE', `/api/admin/tokens/${id}`)).status).toBe(200)
+    const after = await bearer(token, 'GET', '/api/v1/notebooks')
+    expect(after.status).toBe(401)
+    expect(after.body.message).toMatch(/revoked/)
+    expect((await admin.request('DELETE', `/api/admin/tokens/${id}`)).status).toBe(409)
+  })
+
+  it('reach only what the person they act for may read', async () => {
+    const { token } = await issue(personId('amara'), ['records:read'])
+    const names = (await bearer(token, 'GET', '/api/v1/notebooks')).body.notebooks.map((n: { name: string }) => n.name)
+    expect(names).toContain('Infrared line surveys — cell B')
+    expect(names).not.toContain('Hyperpolarisation bench')
+  })
+
+  it('are rate limited: past the limit (30 a minute in the test server) the answer is 429 with Retry-After', async () => {
+    const { token } = await issue(personId('amara'), ['records:read'])
+    const statuses: number[] = []
+    for (let i = 0; i < 31; i++)
+      statuses.push((await bearer(token, 'GET', '/api/v1/notebooks')).status)
+    expect(statuses.slice(0, 30).every(s => s === 200)).toBe(true)
+    const limited = await bearer(token, 'GET', '/api/v1/notebooks')
+    expect(limited.status).toBe(429)
+    expect(Number(limited.headers.get('retry-after'))).toBeGreaterThan(0)
+  })
+
+  it('name the field of a bad token request', async () => {
+    const reply = await admin.post('/api/admin/tokens', { name: 'x', actsFor: personId('amara'), scopes: ['everything'] })
+    expect(reply.status).toBe(400)
+    expect(reply.body.message).toMatch(/^scopes\[0\]:/)
+  })
+})
+
+describe('/api/v1 routes', () => {
+  it('create an entry with calculation blocks and read it back', async () => {
+    const { token } = await issue(personId('amara'), ['records:read', 'entries:write'])
+    const input = { temperature: '296 K', levels: [{ energy: '0 cm^-1' }, { energy: '667 cm^-1', degeneracy: 2 }] }
+    const created = await bearer(token, 'POST', `/api/v1/notebooks/${infraredId}/entries`, {
+      title: 'Imported from the host notebook', text: 'First paragraph.\n\nSecond paragraph.', blocks: [{ kind: 'levels', title: 'Bending levels', input }],
+    })
+    expect(created.status).toBe(201)
+    const id = created.body.entry.id
+    const read = await bearer(token, 'GET', `/api/v1/entries/${id}`)
+    expect(read.status).toBe(200)
+    const nodes = read.body.entry.content.content
+    expect(nodes.map((n: { type: string }) => n.type)).toEqual(['paragraph', 'paragraph', 'calculationBlock'])
+    expect(nodes[2].attrs).toMatchObject({ kind: 'levels', title: 'Bending levels', input })
+    const list = await bearer(token, 'GET', `/api/v1/notebooks/${infraredId}/entries?q=${encodeURIComponent('host notebook')}`)
+    expect(list.body.entries.map((e: { id: string }) => e.id)).toContain(id)
+  })
+
+  it('refuse an invalid block, naming it and the field, and store nothing', async () => {
+    const { token } = await issue(personId('amara'), ['records:read', 'entries:write'])
+    const before = (await bearer(token, 'GET', `/api/v1/notebooks/${infraredId}/entries`)).body.total
+    const reply = await bearer(token, 'POST', `/api/v1/notebooks/${infraredId}/entries`, {
+      title: 'Bad block', blocks: [{ kind: 'levels', input: { temperature: '300 K', levels: [{ energy: '0 cm^-1' }] } }, { kind: 'levels', input: { temperature: '300 kg', levels: [{ energy: '0 cm^-1' }] } }],
+    })
+    expect(reply.status).toBe(400)
+    expect(reply.body.message).toMatch(/^blocks\[1\]\.input\.temperature:/)
+    expect((await bearer(token, 'GET', `/api/v1/notebooks/${infraredId}/entries`)).body.total).toBe(before)
+  })
+
+  it('evaluate a calculation exactly as the engine does', async () => {
+    const { token } = await issue(personId('felix'), ['records:read'])
+    const request = { kind: 'spin', input: { nucleus: '1H', field: '9.4 T', temperature: '298.15 K' } }
+    const reply = await bearer(token, 'POST', '/api/v1/calculations', request)
+    expect(reply.status).toBe(200)
+    expect(reply.body.result.polarization).toBeCloseTo((evaluate(request).result as { polarization: number }).polarization, 15)
+  })
+
+  it('refuse to write for a person without the scientist role or outside the notebook', async () => {
+    const { token } = await issue(personId('felix'), ['entries:write'])
+    expect((await bearer(token, 'POST', `/api/v1/notebooks/${infraredId}/entries`, { title: 'No role' })).status).toBe(403)
+  })
+})
