@@ -129,3 +129,20 @@ describe('/api/v1 routes', () => {
     expect((await bearer(token, 'POST', `/api/v1/notebooks/${infraredId}/entries`, { title: 'No role' })).status).toBe(403)
   })
 })
+
+describe('the OpenAPI description', () => {
+  it('is served publicly and describes every /api/v1 route with its scope', async () => {
+    const reply = await bearer(null, 'GET', '/api/v1/openapi.json')
+    expect(reply.status).toBe(200)
+    expect(reply.body.openapi).toBe('3.1.0')
+    const paths = Object.keys(reply.body.paths)
+    expect(paths).toEqual(expect.arrayContaining(['/api/v1/notebooks', '/api/v1/notebooks/{id}/entries', '/api/v1/entries/{id}', '/api/v1/calculations', '/api/v1/records/{id}/bundle', '/api/v1/records/{id}/pdf']))
+    for (const path of paths) {
+      for (const operation of Object.values(reply.body.paths[path]) as { 'x-scope': string, responses: Record<string, unknown> }[]) {
+        expect(['records:read', 'entries:write', 'records:export']).toContain(operation['x-scope'])
+        expect(operation.responses).toHaveProperty('401')
+      }
+    }
+    expect(reply.body.components.schemas.CreateEntry.properties).toHaveProperty('blocks')
+  })
+})
