@@ -74,6 +74,17 @@ export function boltzmannStatistics(
   }
 }
 
+const SMALL_LOG10_LIMIT = 4096
+let smallLog10: Float64Array | null = null
+/** log10 n for n = 0 … 4095 (index 0 unused: degeneracies start at 1). */
+function smallLog10Table(): Float64Array {
+  if (!smallLog10) {
+    smallLog10 = new Float64Array(SMALL_LOG10_LIMIT)
+    for (let n = 1; n < SMALL_LOG10_LIMIT; n++) smallLog10[n] = Math.log10(n)
+  }
+  return smallLog10
+}
+
 /**
  * The hot loop of boltzmannStatistics on typed arrays: weights w_i = g_i e^{-(x_i - x_min)},
  * their sum and first two moments, then normalised fractions and log10 fractions
@@ -127,14 +138,12 @@ export function boltzmannKernel(
     if (degeneracies === null) {
       for (let index = 0; index < count; index++) log10Fractions[index] = -(reduced[index]! - lowest) * inverseLn10 - log10Sum
     } else {
-      let lastDegeneracy = 1
-      let log10Degeneracy = 0
+      // Degeneracies are whole numbers, mostly small: look their log10 up in a table.
+      const table = smallLog10Table()
       for (let index = 0; index < count; index++) {
         const degeneracy = degeneracies[index]!
-        if (degeneracy !== lastDegeneracy) {
-          lastDegeneracy = degeneracy
-          log10Degeneracy = Math.log10(degeneracy)
-        }
+        const tabulated = table[degeneracy]
+        const log10Degeneracy = tabulated !== undefined && degeneracy >= 1 ? tabulated : Math.log10(degeneracy)
         log10Fractions[index] = log10Degeneracy - (reduced[index]! - lowest) * inverseLn10 - log10Sum
       }
     }
