@@ -3,6 +3,9 @@ export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   // Nuxt 4 silently switches to app/ when such a folder appears; pin the root.
   srcDir: '.',
+  // Keep build output inside the checkout: by default Nuxt 4 builds into
+  // node_modules/.cache/nuxt, which checkouts sharing node_modules would overwrite.
+  buildDir: '.nuxt',
   devtools: { enabled: false },
   telemetry: false,
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils'],
@@ -32,6 +35,8 @@ export default defineNuxtConfig({
     },
     public: {
       demoMode: false,
+      // Host origins allowed to frame /embed pages, space separated (NUXT_PUBLIC_EMBED_ORIGINS).
+      embedOrigins: '',
     },
   },
   // The engine uses BigInt literals for exact microstate counts: target ES2022 everywhere.
