@@ -15,8 +15,11 @@ export default defineNuxtRouteMiddleware(async (to) => {
   await session.load()
   if (to.meta.public)
     return
-  if (!session.signedIn)
-    return navigateTo({ path: '/signin', query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
+  if (!session.signedIn) {
+    // Embedded pages sign in inside the frame: the ordinary sign-in page refuses framing.
+    const signInPath = to.path.startsWith('/embed') ? '/embed/signin' : '/signin'
+    return navigateTo({ path: signInPath, query: to.fullPath !== '/' ? { next: to.fullPath } : {} })
+  }
   if (to.meta.roles && !session.hasRole(...to.meta.roles))
     return abortNavigation(createError({ statusCode: 403, message: `This page needs the ${to.meta.roles.join(' or ')} role.` }))
 })

@@ -1,9 +1,9 @@
+import { parseEmbedOrigins } from '#shared/embed'
 import { createHash } from 'node:crypto'
 
-/** Origins allowed to frame the embed pages (THERMOTOME_EMBED_ORIGINS, space or comma separated). */
+/** Origins allowed to frame the embed pages (NUXT_PUBLIC_EMBED_ORIGINS, space or comma separated). */
 export function embedOrigins(): string[] {
-  return (process.env.THERMOTOME_EMBED_ORIGINS ?? '').split(/[\s,]+/).filter(Boolean)
-    .filter(origin => /^https?:\/\/[^/\s'";]+$/.test(origin))
+  return parseEmbedOrigins(String(useRuntimeConfig().public.embedOrigins ?? ''))
 }
 
 export function isEmbedPath(path: string): boolean {

@@ -13,6 +13,7 @@ declare module 'vitest' {
   export interface ProvidedContext {
     baseURL: string
     databaseURL: string
+    embedHostOrigin: string
   }
 }
 
@@ -61,6 +62,8 @@ export default async function setup(project: TestProject) {
 
   const port = 3300 + (process.pid % 500)
   const baseURL = `http://127.0.0.1:${port}`
+  // A host notebook page for the embed tests is served on the next port (another origin).
+  const embedHostOrigin = `http://127.0.0.1:${port + 1000}`
   const log = createWriteStream(`${root}/test-artifacts/server.log`)
   const server = spawn(process.execPath, ['.output/server/index.mjs'], {
     cwd: root,
@@ -74,6 +77,7 @@ export default async function setup(project: TestProject) {
       THERMOTOME_TRUST_PROXY: '1',
       THERMOTOME_API_RATE_PER_MINUTE: '30',
       NUXT_PUBLIC_DEMO_MODE: 'true',
+      NUXT_PUBLIC_EMBED_ORIGINS: embedHostOrigin,
       THERMOTOME_DATA_DIR: `${root}/test-artifacts/data`,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
@@ -84,6 +88,7 @@ export default async function setup(project: TestProject) {
 
   project.provide('baseURL', baseURL)
   project.provide('databaseURL', databaseURL)
+  project.provide('embedHostOrigin', embedHostOrigin)
 
   return async () => {
     server.kill('SIGTERM')
