@@ -190,8 +190,8 @@ export interface ImportResult<Row> {
 
 /** Thrown for a mapping that cannot be applied at all (unknown column or unit). */
 export class ImportMappingError extends Error {
-  constructor(public field: string, message: string) {
-    super(`${field}: ${message}`)
+  constructor(public field: string, public reason: string) {
+    super(`${field}: ${reason}`)
     this.name = 'ImportMappingError'
   }
 }

@@ -358,3 +358,17 @@ describe('bad input names the field', () => {
     expect(reply.status).toBe(415)
   })
 })
+
+describe('file names with quotes and separators', () => {
+  it('keeps a ; and = inside the quoted name (RFC 7578)', async () => {
+    const reply = await uploadFile(amara, `/api/entries/${entryId}/attachments`, 'run 7; T=296 K.csv', 'E\n0\n')
+    expect(reply.status).toBe(201)
+    expect(reply.body.attachment.name).toBe('run 7; T=296 K.csv')
+  })
+
+  it('answers 400 for a multipart body cut short', async () => {
+    const reply = await sendRaw(amara, 'POST', `/api/entries/${entryId}/attachments`, '--XY\r\nContent-Disposition: form-data; name="file"; filename="a.csv"\r\n\r\nE,g', { 'content-type': 'multipart/form-data; boundary=XY' })
+    expect(reply.status).toBe(400)
+    expect(reply.body.message).toMatch(/^file:/)
+  })
+})

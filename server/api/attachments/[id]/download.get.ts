@@ -18,7 +18,7 @@ export default defineEventHandler(async (event) => {
   const bytes = await verifiedAttachmentBytes(person, attachment)
   setResponseHeaders(event, {
     'content-type': attachment.mediaType.startsWith('text/') ? `${attachment.mediaType}; charset=utf-8` : attachment.mediaType,
-    'content-length': String(bytes.length),
+    'content-length': bytes.length,
     'content-disposition': contentDisposition(attachment.name),
     'x-content-type-options': 'nosniff',
     'cache-control': 'private, no-store',
