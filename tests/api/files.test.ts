@@ -181,6 +181,17 @@ describe('limits: nothing is stored for a refused file', () => {
     })
   })
 
+  it('accepts a file of exactly 20 MB and gives back the same bytes', async () => {
+    const exact = Buffer.alloc(20 * MB, '0.5,1\n')
+    const reply = await uploadFile(amara, `/api/entries/${entryId}/attachments`, 'exactly-20MB.csv', exact, 'text/csv')
+    expect(reply.status).toBe(201)
+    expect(reply.body.attachment).toMatchObject({ size: 20 * MB, sha256: sha256(exact) })
+    const download = await sendRaw(amara, 'GET', `/api/attachments/${reply.body.attachment.id}/download`, undefined)
+    expect(sha256(download.body as Buffer)).toBe(sha256(exact))
+    // Remove it again so the list stays short for the tests below.
+    expect((await amara.request('DELETE', `/api/attachments/${reply.body.attachment.id}`)).status).toBe(200)
+  })
+
   it('answers 413 for a file one byte over 20 MB (the real size)', async () => {
     await expectNothingStored(async () => {
       const big = new Uint8Array(20 * MB + 1).fill(0x31)
