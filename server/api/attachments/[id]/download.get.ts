@@ -22,7 +22,7 @@ export default defineEventHandler(async (event) => {
     'content-disposition': contentDisposition(attachment.name),
     'x-content-type-options': 'nosniff',
     'cache-control': 'private, no-store',
-    'content-security-policy': "default-src 'none'; sandbox",
+    'content-security-policy': "default-src 'none'; sandbox; frame-ancestors 'none'",
     'x-thermotome-sha256': attachment.sha256,
   })
   return bytes
