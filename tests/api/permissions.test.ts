@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
-import { as, Client, type DemoKey } from '../support/http'
+import { as, Client, type DemoKey, type Reply } from '../support/http'
+import { uploadFile } from '../support/upload'
 
 /**
  * Every route × (anonymous and each role) with the status it must answer. The demo lab
@@ -24,6 +25,9 @@ beforeAll(async () => {
   ids.amaraEntry = entries.find(e => e.author.name.includes('Amara'))!.id
   const people = (await clients.get('hana')!.get('/api/people')).body.people as { id: string, email: string }[]
   ids.priya = people.find(p => p.email.startsWith('priya'))!.id
+  const attached = await uploadFile(clients.get('amara')!, `/api/entries/${ids.amaraEntry}/attachments`, 'permission-check.csv', 'E,g\n0,1\n')
+  expect(attached.status).toBe(201)
+  ids.attachment = attached.body.attachment.id
 })
 
 interface RouteCase {
@@ -31,6 +35,8 @@ interface RouteCase {
   method: 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE'
   path: () => string
   body?: (who: Who) => unknown
+  /** For bodies that are not JSON (file uploads): sends the request itself. */
+  send?: (client: Client, path: string) => Promise<Reply>
   expect: Record<Who, number>
 }
 
@@ -57,6 +63,11 @@ const routes: RouteCase[] = [
   { name: 'change person', method: 'PATCH', path: () => `/api/people/${ids.priya}`, body: () => ({ name: 'Priya Natarajan' }), expect: adminOnly(200) },
   { name: 'audit trail', method: 'GET', path: () => '/api/audit', expect: recordsOnly },
   { name: 'audit chain check', method: 'GET', path: () => '/api/audit/verify', expect: recordsOnly },
+  { name: 'attach a data file', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/attachments`, send: (client, path) => uploadFile(client, path, 'levels.csv', 'E,g\n0,1\n'), expect: { anonymous: 401, amara: 201, priya: 403, felix: 403, hana: 403 } },
+  { name: 'list data files', method: 'GET', path: () => `/api/entries/${ids.amaraEntry}/attachments`, expect: anyoneSignedIn },
+  { name: 'download a data file', method: 'GET', path: () => `/api/attachments/${ids.attachment}/download`, expect: anyoneSignedIn },
+  { name: 'preview a data file', method: 'GET', path: () => `/api/attachments/${ids.attachment}/preview`, expect: anyoneSignedIn },
+  { name: 'remove a data file', method: 'DELETE', path: () => `/api/attachments/${ids.attachment}`, expect: { anonymous: 401, amara: 200, priya: 403, felix: 403, hana: 403 } },
   { name: 'calculation kinds', method: 'GET', path: () => '/api/calculations/kinds', expect: anyoneSignedIn },
   { name: 'evaluate a calculation', method: 'POST', path: () => '/api/calculations', body: () => ({ kind: 'levels', input: { temperature: '300 K', levels: [{ energy: '0 cm^-1' }, { energy: '200 cm^-1', degeneracy: 2 }] } }), expect: anyoneSignedIn },
   { name: 'list API tokens', method: 'GET', path: () => '/api/admin/tokens', expect: adminOnly(200) },
@@ -72,7 +83,9 @@ describe('route permissions', () => {
     for (const who of WHO) {
       it(`${route.method} ${route.name} as ${who} → ${route.expect[who]}`, async () => {
         const client = clients.get(who)!
-        const reply = await client.request(route.method, route.path(), route.body ? route.body(who) : (route.method === 'GET' ? undefined : {}))
+        const reply = route.send
+          ? await route.send(client, route.path())
+          : await client.request(route.method, route.path(), route.body ? route.body(who) : (route.method === 'GET' || route.method === 'DELETE' ? undefined : {}))
         expect(reply.status, JSON.stringify(reply.body).slice(0, 300)).toBe(route.expect[who])
       })
     }
