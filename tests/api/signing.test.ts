@@ -25,7 +25,7 @@ import { as, baseURL, type Client, type DemoKey } from '../support/http'
 let database: pg.Client
 const clients = {} as Record<'amara' | 'jonah' | 'priya' | 'felix' | 'hana', Client>
 const keys = {} as Record<'amara' | 'jonah' | 'priya', { secretKey: Uint8Array, fingerprint: string }>
-const ids = {} as Record<string, string>
+const ids = {} as Record<'infrared' | 'amara' | 'jonah' | 'priya' | 'felix' | 'journey' | 'declined', string>
 const PASSPHRASE = 'kestrel ridge signing words'
 
 const levelsInput = { temperature: '296 K', levels: [{ energy: '0 cm^-1' }, { energy: '667 cm^-1', degeneracy: 2 }] }
@@ -110,7 +110,7 @@ beforeAll(async () => {
   const notebooks = (await clients.hana.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
   ids.infrared = notebooks.find(n => n.name.startsWith('Infrared'))!.id
   const people = (await clients.hana.get('/api/people')).body.people as { id: string, email: string }[]
-  for (const who of ['amara', 'jonah', 'priya', 'felix'])
+  for (const who of ['amara', 'jonah', 'priya', 'felix'] as const)
     ids[who] = people.find(p => p.email.startsWith(who))!.id
   await registerKey('amara')
   await registerKey('jonah')
