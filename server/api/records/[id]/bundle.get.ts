@@ -17,5 +17,11 @@ export default defineEventHandler(async (event) => {
   const version = await signingFrozenVersion(database, id, number)
   if (!version)
     throw createError({ statusCode: 404, message: number ? `Version ${number} of this entry has not been signed.` : 'This entry has no signed version yet.' })
-  return signingBundleOf(database, version)
+  try {
+    return await signingBundleOf(database, version)
+  }
+  catch (error) {
+    // Only stored rows altered behind the triggers' back get here; verify says what is wrong.
+    throw createError({ statusCode: 409, message: `The stored version cannot be exported as a valid bundle (${error instanceof Error ? error.message : String(error)}). Verify it to see what was altered.` })
+  }
 })
