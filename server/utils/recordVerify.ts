@@ -1,4 +1,5 @@
-import { and, eq, inArray, sql } from 'drizzle-orm'
+import { createHash } from 'node:crypto'
+import { and, eq, gt, inArray, isNull, lte, or, sql } from 'drizzle-orm'
 import {
   CalculationBlockError,
   SigningStatementSchema,
@@ -12,7 +13,7 @@ import {
   statementHash,
 } from '#shared/records'
 import type { RecordBundle, RecordDocument, SignatureEnvelope } from '#shared/records'
-import { auditEvents, notebooks, people, type Entry, type EntryVersion } from '../database/schema'
+import { attachments, auditEvents, notebooks, people, type Entry, type EntryVersion } from '../database/schema'
 import type { Database } from './db'
 import { ed25519Verify } from './ed25519'
 
@@ -103,6 +104,25 @@ export async function signingVerifyRecord(database: Database, entry: Entry, vers
   }
   catch {
     recordProblems.push('the stored record document is not a valid record')
+  }
+
+  // The files themselves: their stored bytes must still hash to what the record names.
+  const storedFiles = await database.select({ name: attachments.name, sha256: attachments.sha256, storageKey: attachments.storageKey }).from(attachments)
+    .where(and(eq(attachments.entryId, entry.id), lte(attachments.uploadedAt, version.frozenAt), or(isNull(attachments.detachedAt), gt(attachments.detachedAt, version.frozenAt))))
+  for (const file of storedFiles) {
+    try {
+      const raw = await useStorage('attachments').getItemRaw<Buffer | Uint8Array | ArrayBuffer>(file.storageKey)
+      if (raw == null) {
+        recordProblems.push(`the file ${file.name} is missing from storage`)
+        continue
+      }
+      const bytes = raw instanceof ArrayBuffer ? new Uint8Array(raw) : raw
+      if (createHash('sha256').update(bytes).digest('hex') !== file.sha256)
+        recordProblems.push(`the stored bytes of ${file.name} no longer match the SHA-256 that was signed`)
+    }
+    catch (error) {
+      recordProblems.push(`the file ${file.name} could not be read: ${error instanceof Error ? error.message : String(error)}`)
+    }
   }
 
   const rows = await signingSignaturesOf(database, version.id)

@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import { statementHash } from '#shared/records'
 import { signBodySchema } from '#shared/schemas/signing'
 import { uuidSchema } from '#shared/schemas/notebooks'
@@ -34,11 +34,13 @@ export default defineEventHandler(async (event) => {
       if (recordHash !== challenge.recordHash)
         throw createError({ statusCode: 409, message: 'The entry changed after the challenge was issued. Reload it, check it, and sign again.' })
       await signingConsumeChallenge(tx, challenge.id)
-      const frozenAt = new Date()
+      // The database's clock, read after the entry lock is held: the attachments that belong to
+      // the version are exactly those uploaded (by database time) before it and not detached.
       const [version] = await tx.insert(entryVersions).values({
         entryId: current.id, version: current.version, supersedesVersion: current.supersedesVersion,
-        title: current.title, content: current.content, record, recordHash, frozenAt, frozenBy: person.id,
+        title: current.title, content: current.content, record, recordHash, frozenAt: sql`clock_timestamp()`, frozenBy: person.id,
       }).returning()
+      const frozenAt = version!.frozenAt
       const [signature] = await tx.insert(signatures).values({
         entryVersionId: version!.id, signerId: person.id, keyId: key.id, meaning: 'authored',
         statement: envelope.statement, statementHash: signedHash, signature: envelope.signature,
