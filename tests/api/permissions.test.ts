@@ -22,7 +22,8 @@ beforeAll(async () => {
   ids.infrared = notebooks.find(n => n.name.startsWith('Infrared'))!.id
   ids.nmr = notebooks.find(n => n.name.startsWith('Hyperpolarisation'))!.id
   const entries = (await clients.get('amara')!.get(`/api/notebooks/${ids.infrared}/entries?sort=title&direction=asc`)).body.entries as { id: string, title: string, author: { name: string } }[]
-  ids.amaraEntry = entries.find(e => e.author.name.includes('Amara'))!.id
+  // A demo draft by Amara, named exactly: other test files add signed entries to this notebook.
+  ids.amaraEntry = entries.find(e => e.author.name.includes('Amara') && e.title === 'Cell B baseline run, week 14')!.id
   const people = (await clients.get('hana')!.get('/api/people')).body.people as { id: string, email: string }[]
   ids.priya = people.find(p => p.email.startsWith('priya'))!.id
   const attached = await uploadFile(clients.get('amara')!, `/api/entries/${ids.amaraEntry}/attachments`, 'permission-check.csv', 'E,g\n0,1\n')
