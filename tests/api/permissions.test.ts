@@ -22,7 +22,8 @@ beforeAll(async () => {
   ids.infrared = notebooks.find(n => n.name.startsWith('Infrared'))!.id
   ids.nmr = notebooks.find(n => n.name.startsWith('Hyperpolarisation'))!.id
   const entries = (await clients.get('amara')!.get(`/api/notebooks/${ids.infrared}/entries?sort=title&direction=asc`)).body.entries as { id: string, title: string, author: { name: string } }[]
-  ids.amaraEntry = entries.find(e => e.author.name.includes('Amara'))!.id
+  // A demo draft by Amara, named exactly: other test files add signed entries to this notebook.
+  ids.amaraEntry = entries.find(e => e.author.name.includes('Amara') && e.title === 'Cell B baseline run, week 14')!.id
   const people = (await clients.get('hana')!.get('/api/people')).body.people as { id: string, email: string }[]
   ids.priya = people.find(p => p.email.startsWith('priya'))!.id
   const attached = await uploadFile(clients.get('amara')!, `/api/entries/${ids.amaraEntry}/attachments`, 'permission-check.csv', 'E,g\n0,1\n')
@@ -69,6 +70,25 @@ const routes: RouteCase[] = [
   { name: 'preview a data file', method: 'GET', path: () => `/api/attachments/${ids.attachment}/preview`, expect: anyoneSignedIn },
   { name: 'remove a data file', method: 'DELETE', path: () => `/api/attachments/${ids.attachment}`, expect: { anonymous: 401, amara: 200, priya: 403, felix: 403, hana: 403 } },
   { name: 'calculation kinds', method: 'GET', path: () => '/api/calculations/kinds', expect: anyoneSignedIn },
+  // Signing (issue 5). Bodies that pass the role check but fail validation show the order
+  // auth → role → validation without leaving anything behind in the shared test database.
+  { name: 'my signing keys', method: 'GET', path: () => '/api/keys', expect: anyoneSignedIn },
+  { name: 'register a signing key', method: 'POST', path: () => '/api/keys', body: () => ({}), expect: { anonymous: 401, amara: 400, priya: 400, felix: 403, hana: 403 } },
+  { name: 'a person\'s public keys', method: 'GET', path: () => `/api/people/${ids.priya}/keys`, expect: anyoneSignedIn },
+  { name: 'signing challenge, witness meaning, on a draft', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/challenge`, body: () => ({ meaning: 'witnessed' }), expect: { anonymous: 401, amara: 403, priya: 409, felix: 403, hana: 403 } },
+  { name: 'signing challenge without a meaning', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/challenge`, body: () => ({}), expect: { anonymous: 401, amara: 400, priya: 400, felix: 400, hana: 400 } },
+  { name: 'sign an entry', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/sign`, body: () => ({}), expect: { anonymous: 401, amara: 400, priya: 403, felix: 403, hana: 403 } },
+  { name: 'request a witness', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/witness-request`, body: () => ({}), expect: { anonymous: 401, amara: 400, priya: 403, felix: 403, hana: 403 } },
+  { name: 'countersign', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/countersign`, body: () => ({}), expect: { anonymous: 401, amara: 403, priya: 400, felix: 403, hana: 403 } },
+  { name: 'decline to witness', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/decline`, body: () => ({}), expect: { anonymous: 401, amara: 403, priya: 400, felix: 403, hana: 403 } },
+  { name: 'amend a draft', method: 'POST', path: () => `/api/entries/${ids.amaraEntry}/amend`, body: () => ({}), expect: { anonymous: 401, amara: 409, priya: 403, felix: 403, hana: 403 } },
+  { name: 'signed versions', method: 'GET', path: () => `/api/entries/${ids.amaraEntry}/versions`, expect: anyoneSignedIn },
+  { name: 'an unsigned version', method: 'GET', path: () => `/api/entries/${ids.amaraEntry}/versions/1`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 404, hana: 404 } },
+  { name: 'witness candidates', method: 'GET', path: () => `/api/entries/${ids.amaraEntry}/witnesses`, expect: anyoneSignedIn },
+  { name: 'signing state', method: 'GET', path: () => `/api/entries/${ids.amaraEntry}/signing`, expect: anyoneSignedIn },
+  { name: 'verify an unsigned record', method: 'GET', path: () => `/api/records/${ids.amaraEntry}/verify`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 404, hana: 404 } },
+  { name: 'bundle of an unsigned record', method: 'GET', path: () => `/api/records/${ids.amaraEntry}/bundle`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 404, hana: 404 } },
+  { name: 'caught mail (local mode)', method: 'GET', path: () => '/api/admin/mail', expect: adminOnly(200) },
   { name: 'evaluate a calculation', method: 'POST', path: () => '/api/calculations', body: () => ({ kind: 'levels', input: { temperature: '300 K', levels: [{ energy: '0 cm^-1' }, { energy: '200 cm^-1', degeneracy: 2 }] } }), expect: anyoneSignedIn },
   { name: 'list API tokens', method: 'GET', path: () => '/api/admin/tokens', expect: adminOnly(200) },
   { name: 'issue an API token', method: 'POST', path: () => '/api/admin/tokens', body: () => ({ name: 'perm check', actsFor: ids.priya, scopes: ['records:read'] }), expect: adminOnly(201) },

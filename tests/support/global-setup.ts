@@ -1,5 +1,5 @@
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
-import { existsSync, mkdirSync, createWriteStream } from 'node:fs'
+import { existsSync, mkdirSync, createWriteStream, rmSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import pg from 'pg'
 import type { TestProject } from 'vitest/node'
@@ -14,6 +14,7 @@ declare module 'vitest' {
     baseURL: string
     databaseURL: string
     embedHostOrigin: string
+    mailDir: string
   }
 }
 
@@ -51,6 +52,32 @@ async function waitForServer(baseURL: string, child: ChildProcess) {
   throw new Error('the test server did not answer within 60 s')
 }
 
+/** Starts scripts/mail-catcher.ts on a free loopback port; resolves with its SMTP URL. */
+async function startMailCatcher(dataDir: string): Promise<{ url: string, child: ChildProcess }> {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'scripts/mail-catcher.ts', '--port', '0'], {
+    cwd: root,
+    env: { ...process.env, THERMOTOME_DATA_DIR: dataDir },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  })
+  const url = await new Promise<string>((resolve, reject) => {
+    let output = ''
+    const timer = setTimeout(() => reject(new Error('the mail catcher did not start within 30 s')), 30_000)
+    child.stdout!.on('data', (chunk: Buffer) => {
+      output += chunk.toString()
+      const match = /listening on (smtp:\/\/\S+)/.exec(output)
+      if (match) {
+        clearTimeout(timer)
+        resolve(match[1]!)
+      }
+    })
+    child.once('exit', (code) => {
+      clearTimeout(timer)
+      reject(new Error(`the mail catcher exited with code ${code}`))
+    })
+  })
+  return { url, child }
+}
+
 export default async function setup(project: TestProject) {
   mkdirSync(`${root}/test-artifacts`, { recursive: true })
   const databaseURL = await freshDatabase()
@@ -59,6 +86,10 @@ export default async function setup(project: TestProject) {
 
   if (!(process.env.THERMOTOME_REUSE_BUILD === '1' && existsSync(`${root}/.output/server/index.mjs`)))
     execFileSync('npx', ['nuxi', 'build'], { cwd: root, stdio: ['ignore', 'ignore', 'inherit'] })
+
+  const dataDir = `${root}/test-artifacts/data`
+  rmSync(`${dataDir}/mail`, { recursive: true, force: true })
+  const mail = await startMailCatcher(dataDir)
 
   const port = 3300 + (process.pid % 500)
   const baseURL = `http://127.0.0.1:${port}`
@@ -78,20 +109,35 @@ export default async function setup(project: TestProject) {
       THERMOTOME_API_RATE_PER_MINUTE: '30',
       NUXT_PUBLIC_DEMO_MODE: 'true',
       NUXT_PUBLIC_EMBED_ORIGINS: embedHostOrigin,
-      THERMOTOME_DATA_DIR: `${root}/test-artifacts/data`,
+      THERMOTOME_DATA_DIR: dataDir,
+      THERMOTOME_SMTP_URL: mail.url,
+      THERMOTOME_MAIL_CATCHER: '1',
+      THERMOTOME_PUBLIC_URL: baseURL,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   server.stdout!.pipe(log)
   server.stderr!.pipe(log)
-  await waitForServer(baseURL, server)
+  try {
+    await waitForServer(baseURL, server)
+  }
+  catch (error) {
+    mail.child.kill('SIGTERM')
+    server.kill('SIGTERM')
+    throw error
+  }
 
   project.provide('baseURL', baseURL)
   project.provide('databaseURL', databaseURL)
   project.provide('embedHostOrigin', embedHostOrigin)
+  project.provide('mailDir', `${dataDir}/mail`)
 
   return async () => {
     server.kill('SIGTERM')
     await new Promise(resolve => server.once('exit', resolve))
+    if (mail.child.exitCode === null) {
+      mail.child.kill('SIGTERM')
+      await new Promise(resolve => mail.child.once('exit', resolve))
+    }
   }
 }
