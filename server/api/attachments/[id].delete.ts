@@ -1,4 +1,4 @@
-import { and, eq, isNull } from 'drizzle-orm'
+import { and, eq, isNull, sql } from 'drizzle-orm'
 import { z } from 'zod'
 import { uuidSchema } from '#shared/schemas/notebooks'
 import { attachments, entries } from '../../database/schema'
@@ -21,7 +21,8 @@ export default defineEventHandler(async (event) => {
   const updated = await database.transaction(async (tx) => {
     const [current] = await tx.select({ state: entries.state }).from(entries).where(eq(entries.id, entry.id)).for('update')
     requireAttachmentEditor(person, { authorId: entry.authorId, state: current?.state ?? 'missing' })
-    const [row] = await tx.update(attachments).set({ detachedAt: new Date() })
+    // Database time, like uploadedAt and a version's frozenAt, so verify compares one clock.
+    const [row] = await tx.update(attachments).set({ detachedAt: sql`clock_timestamp()` })
       .where(and(eq(attachments.id, id), isNull(attachments.detachedAt))).returning()
     if (!row)
       return undefined
