@@ -38,5 +38,20 @@ npx nuxi build > "$DATA_DIR/build.log" 2>&1 || { tail -40 "$DATA_DIR/build.log";
 export HOST=${HOST:-127.0.0.1}
 export PORT=${PORT:-3000}
 export NUXT_DEMO_MODE=true NUXT_PUBLIC_DEMO_MODE=true
+export THERMOTOME_PUBLIC_URL=${THERMOTOME_PUBLIC_URL:-http://$HOST:$PORT}
+
+catcher_pid=""
+if [[ -z "${THERMOTOME_SMTP_URL:-}" ]]; then
+  # Locally, mail (witness requests, declines) goes to a catcher that keeps it in the data
+  # folder; administrators read it on the "Caught mail" page.
+  say "Mail catcher"
+  MAIL_PORT=${THERMOTOME_MAIL_PORT:-2525}
+  node --import tsx scripts/mail-catcher.ts --port "$MAIL_PORT" &
+  catcher_pid=$!
+  export THERMOTOME_SMTP_URL=smtp://127.0.0.1:$MAIL_PORT THERMOTOME_MAIL_CATCHER=1
+fi
+stop_catcher() { [[ -n $catcher_pid ]] && kill "$catcher_pid" 2> /dev/null || true; }
+trap stop_catcher EXIT
+
 say "Thermotome is serving on http://$HOST:$PORT (demo mode). Stop it with Ctrl-C."
-exec node .output/server/index.mjs
+node .output/server/index.mjs
