@@ -163,7 +163,7 @@ async function keyFor(client: pg.ClientBase, person: FixturePerson): Promise<Fix
   const known = keysByPerson.get(person.id)
   if (known) return known
   const key = await fixtureKey()
-  await client.query('UPDATE signing_keys SET retired_at = $2, retired_reason = $3 WHERE person_id = $1 AND retired_at IS NULL', [person.id, new Date('2020-01-01T00:00:00.000Z'), 'replaced by a test fixture key'])
+  await client.query('UPDATE signing_keys SET retired_at = $2, retired_reason = $3 WHERE person_id = $1 AND retired_at IS NULL', [person.id, new Date(), 'replaced by a test fixture key'])
   const sealed = await sealSecretKey(key.pair.secretKey, 'fixture passphrase')
   await client.query(
     'INSERT INTO signing_keys (id, person_id, public_key, fingerprint, sealed_secret_key, created_at) VALUES ($1, $2, $3, $4, $5, $6)',
