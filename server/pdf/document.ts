@@ -265,7 +265,11 @@ function listTable(title: string, items: Record<string, unknown>[], units: Recor
 function valuesBlock(title: string, value: unknown, units: Record<string, string> = {}): Content[] {
   const rows: [string, string][] = []
   const lists: Content[] = []
-  const entries = value !== null && typeof value === 'object' && !Array.isArray(value) ? Object.entries(value as Record<string, unknown>) : [['value', value] as [string, unknown]]
+  // Stored records lose key order (PostgreSQL jsonb): print temperature first, then by name, the same every time.
+  const rank = (key: string) => (key === 'temperature' ? 0 : 1)
+  const entries = value !== null && typeof value === 'object' && !Array.isArray(value)
+    ? Object.entries(value as Record<string, unknown>).sort(([left], [right]) => rank(left) - rank(right) || (left < right ? -1 : left > right ? 1 : 0))
+    : [['value', value] as [string, unknown]]
   for (const [key, inner] of entries) {
     if (key === 'units') continue
     if (Array.isArray(inner) && inner.length > 0 && inner.every(item => item !== null && typeof item === 'object' && !Array.isArray(item)))
