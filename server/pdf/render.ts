@@ -6,6 +6,7 @@ import pdfmakeDocumentModule from 'pdfmake/js/PDFDocument.js'
 import { canonicalJson } from '../../shared/records'
 import { ATKINSON_FILES, NOTO_GREEK_FILES, PDF_FONT_FAMILIES, type PdfFontFiles } from './fonts'
 import { recordDocumentDefinition, type RecordPdfInput } from './document'
+import { woffToSfnt } from './woff'
 
 let fontBytes: Map<string, Buffer> | null = null
 
@@ -41,7 +42,7 @@ export function setupPdfFonts(files: PdfFontFiles): void {
   for (const name of [...ATKINSON_FILES, ...NOTO_GREEK_FILES]) {
     const data = files[name]
     if (!data) throw new Error(`the PDF font ${name} is missing`)
-    const buffer = Buffer.from(data)
+    const buffer = Buffer.from(woffToSfnt(data))
     bytes.set(name, buffer)
     pdfmake.virtualfs.writeFileSync(name, buffer)
   }
