@@ -1,21 +1,19 @@
+import type { H3Event } from 'h3'
 import { verifyBundle } from '#shared/records'
 
-const MAX_BYTES = 25 * 1024 * 1024
-
-/** The uploaded bytes: a multipart form's `file` field, or the raw body (JSON or PDF). */
-async function uploadedBytes(event: Parameters<typeof readRawBody>[0]): Promise<Uint8Array> {
-  const length = Number(getRequestHeader(event, 'content-length') ?? 0)
-  if (length > MAX_BYTES)
-    throw createError({ statusCode: 413, message: `file: larger than ${MAX_BYTES / 1024 / 1024} MB` })
+/** The uploaded bytes: a multipart form's `file` field, or the raw body (JSON or PDF); no larger than a data file may be. */
+async function uploadedBytes(event: H3Event): Promise<Uint8Array> {
+  const body = await readAttachmentRequestBody(event)
   const type = getRequestHeader(event, 'content-type') ?? ''
-  if (type.startsWith('multipart/form-data')) {
-    const parts = await readMultipartFormData(event)
-    const file = parts?.find(part => part.name === 'file')
+  if (type.toLowerCase().startsWith('multipart/form-data')) {
+    const boundary = multipartBoundary(type)
+    const parts = boundary ? parseMultipartBody(body, boundary) : undefined
+    if (!parts) validationError([{ path: 'body', message: 'the multipart form could not be read' }], 'body')
+    const file = parts.find(part => part.name === 'file')
     if (!file || file.data.length === 0) validationError([{ path: 'file', message: 'choose a bundle (.json) or a record PDF to check' }], 'body')
     return file.data
   }
-  const body = await readRawBody(event, false)
-  if (!body || body.length === 0) validationError([{ path: 'body', message: 'send a bundle (JSON) or a record PDF to check' }], 'body')
+  if (body.length === 0) validationError([{ path: 'body', message: 'send a bundle (JSON) or a record PDF to check' }], 'body')
   return body
 }
 

@@ -1,7 +1,6 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, inject, it } from 'vitest'
 import { as, Client, type DemoKey, type Reply } from '../support/http'
 import { uploadFile } from '../support/upload'
-import { inject } from 'vitest'
 import { createSignedRecord } from '../support/signedRecords'
 import type { RecordBundle } from '../../shared/records'
 
