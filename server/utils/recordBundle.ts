@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray } from 'drizzle-orm'
+import { and, asc, desc, eq } from 'drizzle-orm'
 import { buildBundle, type RecordBundle, type RecordDocument, type SigningStatement } from '#shared/records'
 import { auditEvents, entries, entryVersions, people, signatures, signingKeys, type Entry, type EntryState } from '../database/schema'
 import type { PdfAuditEvent } from '../pdf/document'
@@ -82,13 +82,4 @@ export async function exportableRecord(person: SessionPerson, entryId: string, v
   if (verdict === 'forbidden')
     throw createError({ statusCode: 403, message: 'You may export records you authored or witnessed; others need the compliance role.' })
   return record
-}
-
-/** Ids of the signers of several versions at once (for listing pages). */
-export async function signersOfVersions(versionIds: string[]): Promise<Map<string, string[]>> {
-  const out = new Map<string, string[]>()
-  if (!versionIds.length) return out
-  const rows = await useDatabase().select({ versionId: signatures.entryVersionId, signerId: signatures.signerId }).from(signatures).where(inArray(signatures.entryVersionId, versionIds))
-  for (const row of rows) out.set(row.versionId, [...(out.get(row.versionId) ?? []), row.signerId])
-  return out
 }
