@@ -38,13 +38,17 @@ describe('records officer in the browser', () => {
     await page.getByLabel('Title contains').fill('Browser check')
     const row = page.locator('table tbody tr', { hasText: 'Browser check: band populations' })
     await row.waitFor()
-    expect(await page.locator('table tbody tr').count()).toBe(1)
+    // The title filter applies after a short pause in typing.
+    await expect.poll(() => page.locator('table tbody tr').count(), { timeout: 10_000 }).toBe(1)
     expect(await row.innerText()).toContain('Priya Natarajan')
     await row.getByRole('checkbox').check()
+    const started = page.waitForResponse(response => response.url().endsWith('/api/exports') && response.request().method() === 'POST')
     await page.getByRole('button', { name: 'Export 1 selected' }).click()
-    const download = page.getByRole('link', { name: 'Download zip' }).first()
-    await download.waitFor({ timeout: 60_000 })
-    expect(await page.getByRole('progressbar').first().getAttribute('aria-valuenow')).toBe('1')
+    const { job } = await (await started).json() as { job: { id: string } }
+    // This job's panel: its progress bar reaches 1 of 1 and its download link appears.
+    await page.locator(`a[href="/api/exports/${job.id}/download"]`).waitFor({ timeout: 60_000 })
+    const panel = page.locator('div', { has: page.locator(`a[href="/api/exports/${job.id}/download"]`) }).filter({ has: page.getByRole('progressbar') }).last()
+    expect(await panel.getByRole('progressbar').getAttribute('aria-valuenow')).toBe('1')
     await page.screenshot({ path: `${ARTIFACTS}/records.png`, fullPage: true })
 
     const bundleFile = `${ARTIFACTS}/browser-bundle.json`
