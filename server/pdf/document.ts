@@ -248,6 +248,9 @@ function listTable(title: string, items: Record<string, unknown>[], units: Recor
       if (!keys.includes(key) && (value === null || typeof value !== 'object')) keys.push(key)
     }
   }
+  // Identifying columns first (jsonb returns keys in its own order).
+  const leading = ['label', 'J', 'm', 'energy', 'degeneracy']
+  keys.sort((left, right) => (leading.includes(left) ? leading.indexOf(left) : leading.length) - (leading.includes(right) ? leading.indexOf(right) : leading.length))
   const columns = keys.slice(0, LIST_COLUMNS)
   const header = columns.map(key => ({ text: textRuns(units[key] ? `${key} (${units[key]})` : key), style: 'tableHeader' }))
   const body: Content[][] = [
