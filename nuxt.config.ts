@@ -49,6 +49,8 @@ export default defineNuxtConfig({
     esbuild: { options: { target: 'es2022' } },
     serverAssets: [
       { baseName: 'fonts', dir: '../node_modules/@fontsource/atkinson-hyperlegible/files' },
+      // Greek fallback for record PDFs (Atkinson Hyperlegible has no Greek).
+      { baseName: 'notoFonts', dir: '../node_modules/@fontsource/noto-sans/files', pattern: 'noto-sans-greek-*.woff' },
       { baseName: 'migrations', dir: './database/migrations' },
     ],
   },

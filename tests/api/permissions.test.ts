@@ -1,6 +1,8 @@
-import { beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, inject, it } from 'vitest'
 import { as, Client, type DemoKey, type Reply } from '../support/http'
 import { uploadFile } from '../support/upload'
+import { createSignedRecord } from '../support/signedRecords'
+import type { RecordBundle } from '../../shared/records'
 
 /**
  * Every route × (anonymous and each role) with the status it must answer. The demo lab
@@ -21,7 +23,7 @@ beforeAll(async () => {
   const notebooks = (await clients.get('hana')!.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
   ids.infrared = notebooks.find(n => n.name.startsWith('Infrared'))!.id
   ids.nmr = notebooks.find(n => n.name.startsWith('Hyperpolarisation'))!.id
-  const entries = (await clients.get('amara')!.get(`/api/notebooks/${ids.infrared}/entries?sort=title&direction=asc`)).body.entries as { id: string, title: string, author: { name: string } }[]
+  const entries = (await clients.get('amara')!.get(`/api/notebooks/${ids.infrared}/entries?state=draft&sort=title&direction=asc`)).body.entries as { id: string, title: string, author: { name: string } }[]
   // A demo draft by Amara, named exactly: other test files add signed entries to this notebook.
   ids.amaraEntry = entries.find(e => e.author.name.includes('Amara') && e.title === 'Cell B baseline run, week 14')!.id
   const people = (await clients.get('hana')!.get('/api/people')).body.people as { id: string, email: string }[]
@@ -29,7 +31,21 @@ beforeAll(async () => {
   const attached = await uploadFile(clients.get('amara')!, `/api/entries/${ids.amaraEntry}/attachments`, 'permission-check.csv', 'E,g\n0,1\n')
   expect(attached.status).toBe(201)
   ids.attachment = attached.body.attachment.id
+  // Signed records: Amara's witnessed by Priya (infrared), Jonah's witnessed by Priya (NMR, not Amara's notebook).
+  const own = await createSignedRecord(inject('databaseURL'), { authorEmail: 'amara.lindqvist@kestrel-ridge.example', witnessEmail: 'priya.natarajan@kestrel-ridge.example', notebook: 'Infrared', title: 'Permission check: signed record' })
+  const other = await createSignedRecord(inject('databaseURL'), { authorEmail: 'jonah.whitfield@kestrel-ridge.example', witnessEmail: 'priya.natarajan@kestrel-ridge.example', notebook: 'Hyperpolarisation', title: 'Permission check: NMR record' })
+  ids.ownRecord = own.entryId
+  ids.otherRecord = other.entryId
+  bundle = own.bundle
+  const started = await clients.get('felix')!.post('/api/exports', { records: [{ entryId: own.entryId, version: 1 }] })
+  ids.felixJob = started.body.job.id
+  for (let attempt = 0; attempt < 240; attempt++) {
+    const { body } = await clients.get('felix')!.get(`/api/exports/${ids.felixJob}`)
+    if (body.job.status !== 'queued' && body.job.status !== 'running') break
+    await new Promise(resolve => setTimeout(resolve, 250))
+  }
 })
+let bundle: RecordBundle
 
 interface RouteCase {
   name: string
@@ -69,6 +85,21 @@ const routes: RouteCase[] = [
   { name: 'download a data file', method: 'GET', path: () => `/api/attachments/${ids.attachment}/download`, expect: anyoneSignedIn },
   { name: 'preview a data file', method: 'GET', path: () => `/api/attachments/${ids.attachment}/preview`, expect: anyoneSignedIn },
   { name: 'remove a data file', method: 'DELETE', path: () => `/api/attachments/${ids.attachment}`, expect: { anonymous: 401, amara: 200, priya: 403, felix: 403, hana: 403 } },
+  { name: 'search signed records', method: 'GET', path: () => '/api/records', expect: recordsOnly },
+  { name: 'PDF of a record one authored or witnessed', method: 'GET', path: () => `/api/records/${ids.ownRecord}/pdf`, expect: anyoneSignedIn },
+  // The NMR record was witnessed by Priya, but the members row above empties that notebook:
+  // a witness who no longer belongs to it cannot export it either (404, as for Amara).
+  { name: 'PDF of a record in a notebook one does not belong to', method: 'GET', path: () => `/api/records/${ids.otherRecord}/pdf?version=1`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 200, hana: 200 } },
+  { name: 'bundle JSON of a record one authored or witnessed', method: 'GET', path: () => `/api/records/${ids.ownRecord}/export.json?version=1`, expect: anyoneSignedIn },
+  { name: 'bundle JSON of a record in a notebook one does not belong to', method: 'GET', path: () => `/api/records/${ids.otherRecord}/export.json`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 200, hana: 200 } },
+  { name: 'verify a bundle', method: 'POST', path: () => '/api/verify', body: () => bundle, expect: anyoneSignedIn },
+  { name: 'start a bulk export of a record one may export', method: 'POST', path: () => '/api/exports', body: () => ({ records: [{ entryId: ids.ownRecord, version: 1 }] }), expect: { anonymous: 401, amara: 202, priya: 202, felix: 202, hana: 202 } },
+  { name: 'start a bulk export including a record one may not read', method: 'POST', path: () => '/api/exports', body: () => ({ records: [{ entryId: ids.otherRecord, version: 1 }] }), expect: { anonymous: 401, amara: 404, priya: 404, felix: 202, hana: 202 } },
+  { name: 'list own bulk exports', method: 'GET', path: () => '/api/exports', expect: anyoneSignedIn },
+  { name: 'progress of a bulk export', method: 'GET', path: () => `/api/exports/${ids.felixJob}`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 200, hana: 200 } },
+  { name: 'download a finished bulk export', method: 'GET', path: () => `/api/exports/${ids.felixJob}/download`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 200, hana: 200 } },
+  { name: 'cancel a finished bulk export', method: 'POST', path: () => `/api/exports/${ids.felixJob}/cancel`, expect: { anonymous: 401, amara: 404, priya: 404, felix: 409, hana: 409 } },
+  { name: 'audit trail as CSV', method: 'GET', path: () => '/api/audit/export.csv', expect: recordsOnly },
   { name: 'calculation kinds', method: 'GET', path: () => '/api/calculations/kinds', expect: anyoneSignedIn },
   // Signing (issue 5). Bodies that pass the role check but fail validation show the order
   // auth → role → validation without leaving anything behind in the shared test database.

@@ -1,0 +1,76 @@
+// Renders a record PDF with pdfmake 0.3 (Promise API). Fonts come from the caller (Nitro
+// server assets in the app, node_modules in tests and benchmarks); pdfmake never fetches a URL
+// or reads a local file: both access policies deny everything.
+import pdfmake from 'pdfmake'
+import pdfmakeDocumentModule from 'pdfmake/js/PDFDocument.js'
+import { canonicalJson } from '../../shared/records'
+import { ATKINSON_FILES, NOTO_GREEK_FILES, PDF_FONT_FAMILIES, type PdfFontFiles } from './fonts'
+import { recordDocumentDefinition, type RecordPdfInput } from './document'
+import { woffToSfnt } from './woff'
+
+let fontBytes: Map<string, Buffer> | null = null
+
+const grid = {
+  hLineWidth: () => 0.5,
+  vLineWidth: () => 0.5,
+  hLineColor: () => '#cfc7b3',
+  vLineColor: () => '#cfc7b3',
+  paddingLeft: () => 4,
+  paddingRight: () => 4,
+  paddingTop: () => 2,
+  paddingBottom: () => 2,
+}
+const shaded = {
+  hLineWidth: () => 0,
+  vLineWidth: () => 0,
+  fillColor: () => '#f3eee2',
+  paddingLeft: () => 8,
+  paddingRight: () => 8,
+  paddingTop: () => 6,
+  paddingBottom: () => 6,
+}
+
+/**
+ * Loads the font files into pdfmake once per process. The chart SVGs ask pdfkit for a font by
+ * the same virtual file name pdfmake's text uses; pdfkit would read such a name from disk, so
+ * every new document registers the names with their bytes first (registerFont), and text and
+ * charts share one embedded font per style.
+ */
+export function setupPdfFonts(files: PdfFontFiles): void {
+  if (fontBytes) return
+  const bytes = new Map<string, Buffer>()
+  for (const name of [...ATKINSON_FILES, ...NOTO_GREEK_FILES]) {
+    const data = files[name]
+    if (!data) throw new Error(`the PDF font ${name} is missing`)
+    const buffer = Buffer.from(woffToSfnt(data))
+    bytes.set(name, buffer)
+    pdfmake.virtualfs.writeFileSync(name, buffer)
+  }
+  pdfmake.setFonts(PDF_FONT_FAMILIES)
+  pdfmake.setUrlAccessPolicy(() => false)
+  pdfmake.setLocalAccessPolicy(() => false)
+  pdfmake.addTableLayouts({ recordGrid: grid, recordShaded: shaded })
+  // A CommonJS module with `exports.default`: Node's ESM import and Nitro's bundle unwrap it differently.
+  const moduleValue = pdfmakeDocumentModule as unknown as { default?: { prototype: Record<string, any> }, prototype?: Record<string, any> }
+  const prototype = (moduleValue.prototype ? moduleValue : moduleValue.default)!.prototype!
+  const initFonts = prototype.initFonts as (this: any, ...args: unknown[]) => void
+  prototype.initFonts = function (this: any, ...args: unknown[]) {
+    initFonts.apply(this, args)
+    for (const [name, buffer] of bytes) this.registerFont(name, buffer)
+  }
+  fontBytes = bytes
+}
+
+export const pdfFontsReady = () => fontBytes !== null
+
+/**
+ * The record's PDF bytes. The attached bundle is its canonical JSON, so the bytes inside the
+ * PDF hash the same wherever they are extracted.
+ */
+export async function renderRecordPdfBytes(input: RecordPdfInput): Promise<Buffer> {
+  if (!fontBytes) throw new Error('setupPdfFonts must run before a PDF is rendered')
+  const bundleJson = canonicalJson(input.bundle as never)
+  const definition = recordDocumentDefinition(input, bundleJson)
+  const document = pdfmake.createPdf(definition)
+  return await document.getBuffer()
+}

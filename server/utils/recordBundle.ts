@@ -1,0 +1,85 @@
+import { and, asc, desc, eq } from 'drizzle-orm'
+import { buildBundle, type RecordBundle, type RecordDocument, type SigningStatement } from '#shared/records'
+import { auditEvents, entries, entryVersions, people, signatures, signingKeys, type Entry, type EntryState } from '../database/schema'
+import type { PdfAuditEvent } from '../pdf/document'
+import type { SessionPerson } from './auth'
+
+/** Everything a record export needs, read from the frozen tables. */
+export interface ExportRecord {
+  bundle: RecordBundle
+  entry: Entry
+  version: number
+  /** State of this version: the entry's own state for its newest version, 'superseded' before. */
+  state: EntryState
+  signerIds: string[]
+  auditEvents: PdfAuditEvent[]
+}
+
+/** Actions that only read a record: left out of its PDF, so that exporting does not change the next export. */
+export const READ_ONLY_RECORD_ACTIONS = ['record_exported', 'record_bundle_downloaded', 'record_verified']
+
+/**
+ * Builds the bundle of one signed entry version from entry_versions, signatures and
+ * signing_keys (named so as not to clash with the signing routes' own loader). Null when the
+ * entry has no such frozen version.
+ */
+export async function loadBundleForExport(entryId: string, version?: number): Promise<ExportRecord | null> {
+  const database = useDatabase()
+  const [entry] = await database.select().from(entries).where(eq(entries.id, entryId)).limit(1)
+  if (!entry) return null
+  const [frozen] = await database.select().from(entryVersions)
+    .where(version === undefined ? eq(entryVersions.entryId, entryId) : and(eq(entryVersions.entryId, entryId), eq(entryVersions.version, version)))
+    .orderBy(desc(entryVersions.version)).limit(1)
+  if (!frozen) return null
+  const rows = await database.select({ signature: signatures, key: signingKeys, signer: { id: people.id, name: people.name, email: people.email } })
+    .from(signatures)
+    .innerJoin(signingKeys, eq(signingKeys.id, signatures.keyId))
+    .innerJoin(people, eq(people.id, signingKeys.personId))
+    .where(eq(signatures.entryVersionId, frozen.id))
+    .orderBy(asc(signatures.signedAt), asc(signatures.id))
+  const keys = new Map<string, RecordBundle['publicKeys'][number]>()
+  for (const { key, signer } of rows) {
+    keys.set(key.fingerprint, {
+      fingerprint: key.fingerprint, publicKey: key.publicKey, owner: signer,
+      createdAt: key.createdAt.toISOString(), retiredAt: key.retiredAt ? key.retiredAt.toISOString() : null,
+    })
+  }
+  const bundle = await buildBundle({
+    record: frozen.record as RecordDocument,
+    signatures: rows.map(({ signature, key }) => ({ statement: signature.statement as SigningStatement, signature: signature.signature, publicKey: key.publicKey, id: signature.id })),
+    publicKeys: [...keys.values()],
+  })
+  const events = await database.select({
+    sequence: auditEvents.sequence, occurredAt: auditEvents.occurredAt, action: auditEvents.action,
+    actorEmail: auditEvents.actorEmail, details: auditEvents.details,
+  }).from(auditEvents).where(and(eq(auditEvents.subjectType, 'entry'), eq(auditEvents.subjectId, entryId)))
+    .orderBy(asc(auditEvents.sequence)).limit(1000)
+  return {
+    bundle,
+    entry,
+    version: frozen.version,
+    state: frozen.version < entry.version ? 'superseded' : entry.state,
+    signerIds: [...new Set(rows.map(row => row.signature.signerId))],
+    auditEvents: events
+      .filter(event => !READ_ONLY_RECORD_ACTIONS.includes(event.action))
+      .map(event => ({ ...event, occurredAt: event.occurredAt.toISOString() })),
+  }
+}
+
+/** May this person export this record? Compliance and admin: all; others: their own (author or signer) in a notebook they belong to. */
+export async function mayExportRecord(person: SessionPerson, record: Pick<ExportRecord, 'entry' | 'signerIds'>): Promise<'yes' | 'hidden' | 'forbidden'> {
+  if (readsAllNotebooks(person)) return 'yes'
+  if (!(await isMember(record.entry.notebookId, person.id))) return 'hidden'
+  return record.entry.authorId === person.id || record.signerIds.includes(person.id) ? 'yes' : 'forbidden'
+}
+
+/** The record if the person may export it; 404 for missing or unreadable, 403 for readable but not theirs. */
+export async function exportableRecord(person: SessionPerson, entryId: string, version?: number): Promise<ExportRecord> {
+  const record = await loadBundleForExport(entryId, version)
+  const verdict = record ? await mayExportRecord(person, record) : 'hidden'
+  if (!record || verdict === 'hidden')
+    throw createError({ statusCode: 404, message: version === undefined ? 'No signed record for this entry, or it is not shared with you.' : `No signed version ${version} of this entry, or it is not shared with you.` })
+  if (verdict === 'forbidden')
+    throw createError({ statusCode: 403, message: 'You may export records you authored or witnessed; others need the compliance role.' })
+  return record
+}

@@ -1,0 +1,251 @@
+// Signed records made directly, for tests and benchmarks that need them without going through
+// the signing routes: real Ed25519 keys (shared/records), real engine results (shared/thermo),
+// rows inserted with SQL into signing_keys, entries, entry_versions, signatures and a properly
+// chained audit trail. `signedBundle` is pure (no database); `createSignedRecord` stores one.
+import { randomUUID } from 'node:crypto'
+import pg from 'pg'
+import {
+  buildBundle, buildRecord, generateSigningKeyPair, keyFingerprint, sealSecretKey, signStatement, statementHash,
+  STATEMENT_SCHEMA, bytesToBase64, type RecordBundle, type SignatureEnvelope, type SigningKeyPair,
+} from '../../shared/records'
+import { evaluate } from '../../shared/thermo'
+import { auditRowHash, GENESIS_HASH } from '../../server/database/audit-chain'
+
+export interface FixturePerson { id: string, name: string, email: string }
+export interface FixtureKey { pair: SigningKeyPair, fingerprint: string, createdAt: string, id: string }
+
+/** A key made for a person; `createdAt` must be before any signature made with it. */
+export async function fixtureKey(createdAt = '2020-01-01T00:00:00.000Z'): Promise<FixtureKey> {
+  const pair = generateSigningKeyPair()
+  return { pair, fingerprint: await keyFingerprint(pair.publicKey), createdAt, id: randomUUID() }
+}
+
+const paragraph = (text: string) => ({ type: 'paragraph', content: [{ type: 'text', text }] })
+
+/** Entry content with prose, marks, a list, a table and calculation blocks (levels + rotation by default). */
+export function fixtureContent(blocks: { blockId: string, kind: string, title: string, input: unknown }[]) {
+  return {
+    type: 'doc',
+    content: [
+      { type: 'heading', attrs: { level: 2 }, content: [{ type: 'text', text: 'Purpose' }] },
+      {
+        type: 'paragraph',
+        content: [
+          { type: 'text', text: 'Populations of the CO ladder at ' },
+          { type: 'text', text: '298.15 K', marks: [{ type: 'bold' }] },
+          { type: 'text', text: '; band origin ν₀ ≈ 2143 cm⁻¹, θ', marks: [] },
+          { type: 'text', text: 'vib', marks: [{ type: 'subscript' }] },
+          { type: 'text', text: ' from hc', marks: [] },
+          { type: 'text', text: 'ω', marks: [{ type: 'italic' }] },
+          { type: 'text', text: '/k. Checked by Łukasz and Søren.' },
+        ],
+      },
+      { type: 'bulletList', content: [
+        { type: 'listItem', content: [paragraph('Cell held at 296 K, 20.0 mbar.')] },
+        { type: 'listItem', content: [paragraph('Path 12.4 m; 64 scans averaged.')] },
+      ] },
+      { type: 'table', content: [
+        { type: 'tableRow', content: [
+          { type: 'tableHeader', content: [paragraph('Quantity')] },
+          { type: 'tableHeader', content: [paragraph('Value')] },
+        ] },
+        { type: 'tableRow', content: [
+          { type: 'tableCell', content: [paragraph('Pressure')] },
+          { type: 'tableCell', content: [paragraph('20.0 mbar')] },
+        ] },
+      ] },
+      ...blocks.map(block => ({ type: 'calculationBlock', attrs: { ...block, collapsed: false } })),
+      paragraph('End of entry.'),
+    ],
+  }
+}
+
+export const DEFAULT_BLOCKS = [
+  {
+    kind: 'levels', title: 'CO vibrational ladder at 298.15 K',
+    input: {
+      levels: [
+        { label: 'v = 0', energy: '0 cm^-1', degeneracy: 1 },
+        { label: 'v = 1', energy: '2143.3 cm^-1', degeneracy: 1 },
+        { label: 'v = 2', energy: '4260.1 cm^-1', degeneracy: 1 },
+      ],
+      temperature: '298.15 K',
+      amount: '1 mol',
+    },
+  },
+  {
+    kind: 'rotation', title: 'CO rotational populations',
+    input: { rotationalConstant: '1.9313 cm^-1', temperature: '298.15 K', maxJ: 30 },
+  },
+]
+
+export interface SignedBundleOptions {
+  entryId?: string
+  notebook: { id: string, name: string }
+  title: string
+  version?: number
+  author: FixturePerson
+  authorKey: FixtureKey
+  witness?: FixturePerson
+  witnessKey?: FixtureKey
+  /** ISO time of the author's signature; the witness signs an hour later. */
+  signedAt?: string
+  blocks?: { kind: string, title: string, input: unknown }[]
+  attachments?: { name: string, mediaType: string, size: number, sha256: string }[]
+}
+
+export interface SignedBundle {
+  bundle: RecordBundle
+  entryId: string
+  content: Record<string, unknown>
+  envelopes: { envelope: SignatureEnvelope, signer: FixturePerson, key: FixtureKey, statementHash: string }[]
+}
+
+/** A complete, valid bundle: record with engine results, author signature, optional witness. */
+export async function signedBundle(options: SignedBundleOptions): Promise<SignedBundle> {
+  const entryId = options.entryId ?? randomUUID()
+  const version = options.version ?? 1
+  const signedAt = options.signedAt ?? '2026-03-02T10:15:30.000Z'
+  const blocks = (options.blocks ?? DEFAULT_BLOCKS).map((block, index) => ({ ...block, blockId: `${entryId.slice(0, 8)}-block-${index + 1}` }))
+  const content = fixtureContent(blocks)
+  const record = buildRecord({
+    entry: { id: entryId, notebook: options.notebook, version, supersedes: version > 1 ? version - 1 : null, title: options.title, content },
+    attachments: options.attachments ?? [],
+    calculations: blocks.map((block) => {
+      const evaluated = evaluate({ kind: block.kind, input: block.input })
+      return { blockId: block.blockId, kind: block.kind, input: block.input as never, result: evaluated.result, engineVersion: evaluated.engineVersion, warnings: evaluated.warnings }
+    }),
+  })
+  const { recordHash } = await buildBundle({ record, signatures: [], publicKeys: [] })
+  const envelopes: SignedBundle['envelopes'] = []
+  const authorStatement = {
+    schema: STATEMENT_SCHEMA, recordHash, signer: options.author, keyFingerprint: options.authorKey.fingerprint,
+    meaning: 'authored' as const, statement: 'I authored this entry and its calculations are as I intended them.',
+    signedAt, challenge: randomUUID(),
+  }
+  const authored = await signStatement(authorStatement, options.authorKey.pair.secretKey)
+  const authoredHash = await statementHash(authored.statement)
+  envelopes.push({ envelope: authored, signer: options.author, key: options.authorKey, statementHash: authoredHash })
+  if (options.witness && options.witnessKey) {
+    const witnessed = await signStatement({
+      schema: STATEMENT_SCHEMA, recordHash, signer: options.witness, keyFingerprint: options.witnessKey.fingerprint,
+      meaning: 'witnessed', statement: 'I have read and understood this entry.',
+      signedAt: new Date(Date.parse(signedAt) + 3_600_000).toISOString(), challenge: randomUUID(), countersigns: authoredHash,
+    }, options.witnessKey.pair.secretKey)
+    envelopes.push({ envelope: witnessed, signer: options.witness, key: options.witnessKey, statementHash: await statementHash(witnessed.statement) })
+  }
+  const listings = new Map<string, RecordBundle['publicKeys'][number]>()
+  for (const { signer, key } of envelopes) {
+    listings.set(key.fingerprint, { fingerprint: key.fingerprint, publicKey: bytesToBase64(key.pair.publicKey), owner: signer, createdAt: key.createdAt, retiredAt: null })
+  }
+  const bundle = await buildBundle({ record, signatures: envelopes.map(item => item.envelope), publicKeys: [...listings.values()] })
+  return { bundle, entryId, content, envelopes }
+}
+
+// ---------------------------------------------------------------------------------------
+// Stored records
+
+const keysByPerson = new Map<string, FixtureKey>()
+
+async function appendAudit(client: pg.ClientBase, event: { occurredAt: Date, actorId: string | null, actorEmail: string | null, action: string, subjectType: string, subjectId: string, details: Record<string, unknown> }) {
+  await client.query('SELECT pg_advisory_xact_lock(874202)')
+  const last = await client.query('SELECT hash FROM audit_events ORDER BY sequence DESC LIMIT 1')
+  const row = { ...event, previousHash: (last.rows[0]?.hash as string | undefined) ?? GENESIS_HASH }
+  await client.query(
+    `INSERT INTO audit_events (occurred_at, actor_id, actor_email, action, subject_type, subject_id, details, previous_hash, hash)
+     VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9)`,
+    [row.occurredAt, row.actorId, row.actorEmail, row.action, row.subjectType, row.subjectId, JSON.stringify(row.details), row.previousHash, auditRowHash(row)],
+  )
+}
+
+/** This process's key for a person, stored once in signing_keys (any other active key is retired). */
+async function keyFor(client: pg.ClientBase, person: FixturePerson): Promise<FixtureKey> {
+  const known = keysByPerson.get(person.id)
+  if (known) return known
+  const key = await fixtureKey()
+  await client.query('UPDATE signing_keys SET retired_at = $2, retired_reason = $3 WHERE person_id = $1 AND retired_at IS NULL', [person.id, new Date(), 'replaced by a test fixture key'])
+  const sealed = await sealSecretKey(key.pair.secretKey, 'fixture passphrase')
+  await client.query(
+    'INSERT INTO signing_keys (id, person_id, public_key, fingerprint, sealed_secret_key, created_at) VALUES ($1, $2, $3, $4, $5, $6)',
+    [key.id, person.id, bytesToBase64(key.pair.publicKey), key.fingerprint, JSON.stringify(sealed), new Date(key.createdAt)],
+  )
+  keysByPerson.set(person.id, key)
+  return key
+}
+
+export interface StoredRecordOptions {
+  /** Demo e-mail of the author (a member of the notebook). */
+  authorEmail: string
+  witnessEmail?: string
+  /** Start of the notebook's name, e.g. 'Infrared'. */
+  notebook: string
+  title: string
+  signedAt?: string
+  blocks?: SignedBundleOptions['blocks']
+  attachments?: SignedBundleOptions['attachments']
+}
+
+export interface StoredRecord extends SignedBundle { versionId: string, notebookId: string, authorId: string, witnessId: string | null }
+
+/** Stores a signed (and optionally witnessed) entry version; the entry's state follows. */
+export async function createSignedRecord(databaseURL: string, options: StoredRecordOptions, shared?: pg.Client): Promise<StoredRecord> {
+  const client = shared ?? new pg.Client({ connectionString: databaseURL })
+  if (!shared) await client.connect()
+  try {
+    const person = async (email: string): Promise<FixturePerson> => {
+      const { rows } = await client.query('SELECT id, name, email FROM people WHERE lower(email) = lower($1)', [email])
+      if (!rows[0]) throw new Error(`no person ${email}`)
+      return rows[0] as FixturePerson
+    }
+    const author = await person(options.authorEmail)
+    const witness = options.witnessEmail ? await person(options.witnessEmail) : undefined
+    const { rows: notebooks } = await client.query('SELECT id, name FROM notebooks WHERE name LIKE $1 ORDER BY name LIMIT 1', [`${options.notebook}%`])
+    if (!notebooks[0]) throw new Error(`no notebook ${options.notebook}`)
+    const notebook = notebooks[0] as { id: string, name: string }
+    await client.query('BEGIN')
+    const authorKey = await keyFor(client, author)
+    const witnessKey = witness ? await keyFor(client, witness) : undefined
+    const made = await signedBundle({ notebook, title: options.title, author, authorKey, witness, witnessKey, signedAt: options.signedAt, blocks: options.blocks, attachments: options.attachments })
+    const signedAt = new Date(made.envelopes[0]!.envelope.statement.signedAt)
+    const state = witness ? 'witnessed' : 'awaiting_witness'
+    await client.query(
+      `INSERT INTO entries (id, notebook_id, author_id, title, content, state, version, created_at, updated_at)
+       VALUES ($1, $2, $3, $4, $5, $6, 1, $7, $7)`,
+      [made.entryId, notebook.id, author.id, options.title, JSON.stringify(made.content), state, new Date(signedAt.getTime() - 86_400_000)],
+    )
+    for (const file of options.attachments ?? []) {
+      await client.query(
+        'INSERT INTO attachments (entry_id, name, storage_key, media_type, size, sha256, uploaded_by) VALUES ($1, $2, $3, $4, $5, $6, $7)',
+        [made.entryId, file.name, `fixtures/${file.sha256}`, file.mediaType, file.size, file.sha256, author.id],
+      )
+    }
+    const { rows: [version] } = await client.query(
+      `INSERT INTO entry_versions (entry_id, version, title, content, record, record_hash, frozen_at, frozen_by)
+       VALUES ($1, 1, $2, $3, $4, $5, $6, $7) RETURNING id`,
+      [made.entryId, options.title, JSON.stringify(made.content), JSON.stringify(made.bundle.record), made.bundle.recordHash, signedAt, author.id],
+    )
+    let authorSignatureId: string | null = null
+    for (const { envelope, signer, key, statementHash: hash } of made.envelopes) {
+      const { rows: [signature] } = await client.query(
+        `INSERT INTO signatures (entry_version_id, signer_id, key_id, meaning, statement, statement_hash, signature, signed_at, countersigns_id)
+         VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9) RETURNING id`,
+        [version.id, signer.id, key.id, envelope.statement.meaning, JSON.stringify(envelope.statement), hash, envelope.signature, new Date(envelope.statement.signedAt), envelope.statement.meaning === 'witnessed' ? authorSignatureId : null],
+      )
+      if (envelope.statement.meaning === 'authored') authorSignatureId = signature.id
+      await appendAudit(client, {
+        occurredAt: new Date(envelope.statement.signedAt), actorId: signer.id, actorEmail: signer.email,
+        action: envelope.statement.meaning === 'authored' ? 'entry_signed' : 'entry_countersigned',
+        subjectType: 'entry', subjectId: made.entryId, details: { version: 1, recordHash: made.bundle.recordHash, meaning: envelope.statement.meaning },
+      })
+    }
+    await client.query('COMMIT')
+    return { ...made, versionId: version.id, notebookId: notebook.id, authorId: author.id, witnessId: witness?.id ?? null }
+  }
+  catch (error) {
+    await client.query('ROLLBACK').catch(() => {})
+    throw error
+  }
+  finally {
+    if (!shared) await client.end()
+  }
+}
