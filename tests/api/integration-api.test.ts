@@ -1,5 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest'
+import { inject } from 'vitest'
+import { verifyBundle } from '../../shared/records'
 import { evaluate } from '../../shared/thermo'
+import { createSignedRecord } from '../support/signedRecords'
 import { as, baseURL, type Client } from '../support/http'
 
 let admin: Client
@@ -127,6 +130,33 @@ describe('/api/v1 routes', () => {
   it('refuse to write for a person without the scientist role or outside the notebook', async () => {
     const { token } = await issue(personId('felix'), ['entries:write'])
     expect((await bearer(token, 'POST', `/api/v1/notebooks/${infraredId}/entries`, { title: 'No role' })).status).toBe(403)
+  })
+})
+
+describe('/api/v1 records', () => {
+  it('fetch a signed record\'s bundle and PDF with the export scope, and verify the bundle offline', async () => {
+    const stored = await createSignedRecord(inject('databaseURL'), {
+      authorEmail: 'amara.lindqvist@kestrel-ridge.example', witnessEmail: 'priya.natarajan@kestrel-ridge.example',
+      notebook: 'Infrared', title: 'Host system export check', signedAt: '2026-05-04T10:00:00.000Z',
+    })
+    const entryId = stored.entryId
+    const reader = await issue(personId('amara'), ['records:read'])
+    expect((await bearer(reader.token, 'GET', `/api/v1/records/${entryId}/bundle`)).status).toBe(403)
+    const { token } = await issue(personId('amara'), ['records:export'])
+    const bundle = await bearer(token, 'GET', `/api/v1/records/${entryId}/bundle?version=1`)
+    expect(bundle.status).toBe(200)
+    const report = await verifyBundle(bundle.body)
+    expect(report.ok).toBe(true)
+    expect(bundle.body.recordHash).toBe(stored.bundle.recordHash)
+    const pdf = await fetch(`${baseURL()}/api/v1/records/${entryId}/pdf`, { headers: { authorization: `Bearer ${token}` } })
+    expect(pdf.status).toBe(200)
+    expect(pdf.headers.get('content-type')).toBe('application/pdf')
+    expect(new TextDecoder().decode((await pdf.arrayBuffer()).slice(0, 5))).toBe('%PDF-')
+    // A token acting for the records officer reaches every record.
+    const outsider = await issue(personId('felix'), ['records:export'])
+    expect((await bearer(outsider.token, 'GET', `/api/v1/records/${entryId}/bundle`)).status).toBe(200)
+    expect((await bearer(token, 'GET', '/api/v1/records/00000000-0000-4000-8000-000000000000/bundle')).status).toBe(404)
+    expect((await bearer(token, 'GET', `/api/v1/records/${entryId}/bundle?version=zero`)).status).toBe(400)
   })
 })
 

@@ -126,6 +126,8 @@ const routes: RouteCase[] = [
   { name: 'revoke an unknown API token', method: 'DELETE', path: () => '/api/admin/tokens/00000000-0000-4000-8000-000000000000', expect: adminOnly(404) },
   // Bearer-token routes ignore session cookies: without a token everyone gets 401.
   { name: 'v1 notebooks without a token', method: 'GET', path: () => '/api/v1/notebooks', expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
+  { name: 'v1 record bundle without a token', method: 'GET', path: () => `/api/v1/records/${ids.amaraEntry}/bundle`, expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
+  { name: 'v1 record PDF without a token', method: 'GET', path: () => `/api/v1/records/${ids.amaraEntry}/pdf`, expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
   { name: 'v1 evaluate without a token', method: 'POST', path: () => '/api/v1/calculations', body: () => ({ kind: 'levels', input: {} }), expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
 ]
 
