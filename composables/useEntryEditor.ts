@@ -46,6 +46,7 @@ export function useEntryEditor(initialContent: Record<string, unknown>) {
         return true
       },
     },
+    onCreate: () => { performance.mark('thermotome:editor-created') },
     onUpdate: ({ editor: instance }) => {
       store.change({ content: instance.getJSON() as Record<string, unknown> })
     },
@@ -72,7 +73,8 @@ export function useEntryEditor(initialContent: Record<string, unknown>) {
     picker.value = null
     const attrs = newCalculationBlock(kind, definition.title, definition.exampleInput, randomBlockId())
     store.focusBlockId = attrs.blockId
-    editor.value.chain().focus().insertContent({ type: CALCULATION_BLOCK, attrs }).run()
+    // No editor focus here: the new block takes the focus in its first field (keyboard path).
+    editor.value.commands.insertContent({ type: CALCULATION_BLOCK, attrs })
   }
 
   /** Replaces the document (after reloading someone else's version) without marking it changed. */
