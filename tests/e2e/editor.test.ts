@@ -181,9 +181,9 @@ describe('the entry editor in the browser', () => {
     await waitSaved(page)
 
     // Leaving with unsaved changes asks first.
-    await page.locator('.ProseMirror').press('End')
     await page.locator('.ProseMirror p').first().click()
-    await page.keyboard.type(' More.')
+    await page.keyboard.press('End')
+    await page.keyboard.type(' Checked twice.')
     let question = ''
     page.once('dialog', (dialog) => { question = dialog.message(); void dialog.dismiss() })
     await page.getByRole('link', { name: 'Infrared line surveys — cell B' }).click()
