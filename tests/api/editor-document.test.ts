@@ -36,10 +36,11 @@ beforeAll(async () => {
   const notebooks = (await amara.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
   const infrared = notebooks.find(n => n.name.startsWith('Infrared'))!
   entryId = (await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'Editor document checks' })).body.entry.id
-  const jonah = await as('jonah')
-  const jonahNotebooks = (await jonah.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
-  const nmr = jonahNotebooks.find(n => n.name.startsWith('Hyperpolarisation'))!
-  foreignEntryId = (await jonah.get(`/api/notebooks/${nmr.id}/entries`)).body.entries[0].id
+  // The administrator reads every notebook; Amara is not a member of the NMR one.
+  const hana = await as('hana')
+  const allNotebooks = (await hana.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
+  const nmr = allNotebooks.find(n => n.name.startsWith('Hyperpolarisation'))!
+  foreignEntryId = (await hana.get(`/api/notebooks/${nmr.id}/entries`)).body.entries[0].id
 })
 
 describe('saving an editor document', () => {
