@@ -134,6 +134,20 @@ describe('saving an editor document', () => {
     expect(reply.status).toBe(404)
   })
 
+  it('checks a document given when an entry is created, too', async () => {
+    const notebooks = (await amara.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
+    const infrared = notebooks.find(n => n.name.startsWith('Infrared'))!
+    const refused = await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'Smuggled node', content: doc({ type: 'script', content: [] }) })
+    expect(refused.status).toBe(400)
+    expect(refused.body.data.issues[0].path).toBe('content.content[0].type')
+    const badBlock = await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'Bad block', content: doc(block({ input: { levels: [{ energy: '0 cm^-1' }], temperature: 'hot' } })) })
+    expect(badBlock.status).toBe(400)
+    expect(badBlock.body.data.issues[0]).toMatchObject({ blockId: BLOCK_ID, field: 'input.temperature' })
+    const accepted = await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'With a block', content: doc(paragraph('fine'), block()) })
+    expect(accepted.status).toBe(201)
+    expect(accepted.body.entry.content.content[1].attrs.blockId).toBe(BLOCK_ID)
+  })
+
   it('never answers 500 for strange documents', async () => {
     const strange = [
       { type: 'doc', content: [null, 3, 'text', []] },
