@@ -15,7 +15,7 @@ export default <Partial<Config>>{
     extend: {
       colors: {
         paper: { DEFAULT: '#fbf8f1', deep: '#f3eee2', edge: '#e2dccb' },
-        ink: { DEFAULT: '#1f1d1a', soft: '#4a463f', faint: '#7a7468' },
+        ink: { DEFAULT: '#1f1d1a', soft: '#4a463f', faint: '#6b6559' },
         desk: '#e9e5db',
         state: {
           draft: '#6b6b6b',

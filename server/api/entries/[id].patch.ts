@@ -15,6 +15,9 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 403, message: 'Only the author edits an entry.' })
   if (entry.state !== 'draft')
     throw createError({ statusCode: 409, message: 'This version is signed and locked. Amend it to make changes.' })
+  // The deep check evaluates every block with the engine: only for the author's own draft.
+  if (body.content !== undefined)
+    assertEditorDocumentValid(body.content)
 
   const database = useDatabase()
   const updated = await database.transaction(async (tx) => {

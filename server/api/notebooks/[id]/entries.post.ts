@@ -12,6 +12,8 @@ export default defineEventHandler(async (event) => {
   const notebook = await readableNotebook(person, id)
   if (!(await isMember(notebook.id, person.id)))
     throw createError({ statusCode: 403, message: 'Only members of this notebook can write entries in it.' })
+  if (body.content !== undefined)
+    assertEditorDocumentValid(body.content)
   const database = useDatabase()
   const entry = await database.transaction(async (tx) => {
     const [created] = await tx.insert(entries).values({
