@@ -46,7 +46,7 @@ export async function runLoad(baseURL: string, target: LoadTarget, seconds = LOA
     duration: seconds,
     timeout: 30,
     setupClient: target.distinctAddresses
-      ? (client: any) => client.setHeaders({ 'content-type': 'application/json', ...target.headers, 'x-forwarded-for': nextAddress() })
+      ? (client: any) => client.setHeadersAndBody({ 'content-type': 'application/json', ...target.headers, 'x-forwarded-for': nextAddress() }, target.body)
       : undefined,
   } as any)
   const statusCodes = Object.fromEntries(Object.entries(result.statusCodeStats ?? {}).map(([code, v]: [string, any]) => [code, v.count]))
