@@ -79,7 +79,7 @@ export class AppServer {
   exits: Array<{ code: number | null, signal: NodeJS.Signals | null, expected: boolean }> = []
   private expectingExit = false
 
-  constructor(private databaseURL: string, private port: number, private extraEnv: Record<string, string> = {}) {
+  constructor(public databaseURL: string, private port: number, private extraEnv: Record<string, string> = {}) {
     mkdirSync(ARTIFACTS, { recursive: true })
     this.log = createWriteStream(`${ARTIFACTS}/hardening-server.log`, { flags: 'a' })
     this.baseURL = `http://127.0.0.1:${port}`

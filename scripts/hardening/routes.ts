@@ -12,6 +12,7 @@ import { ROOT } from './env'
 
 export interface Fixtures {
   baseURL: string
+  databaseURL?: string
   clients: Record<DemoKey, Client>
   token: string
   ids: {

@@ -53,6 +53,7 @@ async function main() {
   server = new AppServer(databaseURL, await freePort())
   await server.start()
   const f = await makeFixtures(server.baseURL)
+  f.databaseURL = databaseURL
 
   const unlisted = unlistedRoutes()
   check('coverage', 'every state-changing route file is in the route table (scripts/hardening/routes.ts)', unlisted.length === 0, unlisted.join(', '))
@@ -108,7 +109,7 @@ async function main() {
 
   if (only.has('faults')) {
     outage = await databaseOutage(f, server)
-    await uploadsDiskFull(f)
+    await uploadsDiskFull(f, onCleanup)
     await signingKill(f, server)
   }
 }

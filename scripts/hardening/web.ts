@@ -177,7 +177,7 @@ export async function markupAsText(f: Fixtures) {
       await page.goto(`${f.baseURL}${path}`, { waitUntil: 'networkidle' })
       await page.waitForTimeout(1000)
       const text = await page.evaluate(() => document.body.innerText)
-      const injected = await page.evaluate(() => document.querySelectorAll('img[src="x"], img[src="y"], svg[onload], b[onmouseover]').length + [...document.scripts].filter(s => s.textContent?.includes('alert(')).length)
+      const injected = await page.evaluate(() => document.querySelectorAll('img[src="x"], img[src="y"], svg[onload], b[onmouseover]').length + [...document.scripts].filter(s => (!s.type || /javascript|module/.test(s.type)) && s.textContent?.includes('alert(')).length)
       await page.screenshot({ path: `${dir}/markup-${name.replace(/ /g, '-')}.png`, fullPage: true })
       const missing = expected.filter(e => !text.includes(e))
       check(S, `markup shows as text on the ${name} (no dialog, no injected element)`, dialogs.length === 0 && missing.length === 0 && injected === 0,

@@ -7,6 +7,9 @@ import type { H3Event } from 'h3'
  * without Content-Length is cut off as soon as it passes the limit); the bytes read are handed
  * on to readBody/readRawBody through event._requestBody.
  *
+ * JSON bodies are also checked for nesting depth and for text PostgreSQL cannot store
+ * (server/utils/jsonBodyChecks.ts).
+ *
  * Limits (bytes): JSON and other bodies 1 MB (THERMOTOME_BODY_LIMIT); the data-file upload
  * 21 MB (20 MB file + multipart framing; that route counts streamed bytes itself, so it is
  * only checked by its declared length here); the record check upload (/api/verify) 26 MB.
@@ -80,4 +83,11 @@ export default defineEventHandler(async (event) => {
   if (!body)
     tooLarge(limit)
   event._requestBody = body
+  // JSON bodies: refuse nesting and text that would overflow a stack or that PostgreSQL
+  // cannot store, as a 400 naming the field, before any route sees them.
+  if (/json/i.test(getRequestHeader(event, 'content-type') ?? '') && body.length > 0) {
+    const problem = jsonBodyProblem(body.toString('utf8'))
+    if (problem)
+      validationError([problem], 'body')
+  }
 })
