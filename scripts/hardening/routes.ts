@@ -41,6 +41,8 @@ export interface RouteRow {
   /** Which branch brings the route, for the skip message while it is absent. */
   from?: string
   note?: string
+  /** Body limit in MB when not the default 1 MB. */
+  limitMB?: number
 }
 
 const levelsInput = {
@@ -78,6 +80,10 @@ export const ROUTES: RouteRow[] = [
   { method: 'POST', file: 'entries/[id]/countersign.post.ts', path: f => `/api/entries/${f.ids.fuzzEntry}/countersign`, as: 'priya', body: 'json', from: 'signing', valid: () => ({ envelope: {} }) },
   { method: 'POST', file: 'entries/[id]/decline.post.ts', path: f => `/api/entries/${f.ids.fuzzEntry}/decline`, as: 'priya', body: 'json', from: 'signing', valid: () => ({ reason: 'Not checked yet.' }) },
   { method: 'POST', file: 'entries/[id]/amend.post.ts', path: f => `/api/entries/${f.ids.fuzzEntry}/amend`, as: 'amara', body: 'json', from: 'signing' },
+  // Records, exports and verification (branch pdf)
+  { method: 'POST', file: 'exports/index.post.ts', path: () => '/api/exports', as: 'felix', body: 'json', from: 'pdf', valid: f => ({ records: [{ entryId: f.ids.entry, version: 1 }] }) },
+  { method: 'POST', file: 'exports/[id]/cancel.post.ts', path: () => '/api/exports/00000000-0000-4000-8000-000000000000/cancel', as: 'felix', body: 'none', from: 'pdf' },
+  { method: 'POST', file: 'verify.post.ts', path: () => '/api/verify', as: 'felix', body: 'json', from: 'pdf', valid: () => ({ record: {}, recordHash: '', signatures: [] }), note: 'also takes a PDF or multipart upload', limitMB: 26 },
   // Files (branch files)
   { method: 'POST', file: 'entries/[id]/attachments.post.ts', path: f => `/api/entries/${f.ids.fuzzEntry}/attachments`, as: 'amara', body: 'upload', from: 'files' },
   { method: 'DELETE', file: 'attachments/[id].delete.ts', path: () => '/api/attachments/00000000-0000-4000-8000-000000000000', as: 'amara', body: 'none', from: 'files' },

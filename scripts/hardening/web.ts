@@ -118,9 +118,13 @@ export async function bodyLimits(f: Fixtures) {
     const name = `${row.method} /api/${row.file.replace(/\.(post|patch|put|delete)\.ts$/, '')}`
     if (!routePresent(row)) { skip(S, `413 over the body limit: ${name}`, `route not in this build yet (branch ${row.from})`); continue }
     const client = callerClient(f, row.as)
-    const declared = await client.request(row.method, row.path(f), big)
-    const streamed = await sendChunked(f.baseURL, row.method, row.path(f), client, 1_500_000)
-    check(S, `413 over the 1 MB body limit: ${name}`, declared.status === 413 && streamed === 413, `1.5 MB with Content-Length → ${declared.status}; 1.5 MB chunked without Content-Length → ${streamed}`)
+    const limit = (row.limitMB ?? 1) * 1024 * 1024
+    const over = limit + 512 * 1024
+    const body = row.limitMB ? `{"title":"${'x'.repeat(over)}"}` : big
+    const declared = await client.request(row.method, row.path(f), body)
+    const streamed = await sendChunked(f.baseURL, row.method, row.path(f), client, over)
+    const mb = (over / 1024 / 1024).toFixed(1)
+    check(S, `413 over the ${row.limitMB ?? 1} MB body limit: ${name}`, declared.status === 413 && streamed === 413, `${mb} MB with Content-Length → ${declared.status}; ${mb} MB chunked without Content-Length → ${streamed}`)
   }
   const upload = ROUTES.find(r => r.body === 'upload')!
   if (routePresent(upload)) {
