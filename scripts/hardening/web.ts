@@ -27,9 +27,8 @@ export function pageList(f: Fixtures): Array<{ path: string, as: 'amara' | 'hana
   for (const file of pageFiles(join(ROOT, 'pages'))) {
     let route = `/${relative(join(ROOT, 'pages'), file).replace(/\.vue$/, '').replace(/(^|\/)index$/, '')}`
     if (route.includes('[')) {
-      if (route.startsWith('/entries/')) route = route.replace(/\[[^\]]+\]/, f.ids.entry)
-      else if (route.startsWith('/notebooks/')) route = route.replace(/\[[^\]]+\]/, f.ids.notebook)
-      else { skip(S, `security headers on ${route}`, 'no fixture id for this dynamic page'); continue }
+      // The id after /entries/ or /notebooks/ (also under /embed/), or /records/ (an entry id).
+      route = route.replace(/(entries|records)\/\[[^\]]+\]/, `$1/${f.ids.entry}`).replace(/notebooks\/\[[^\]]+\]/, `notebooks/${f.ids.notebook}`)
       if (route.includes('[')) { skip(S, `security headers on ${route}`, 'no fixture for a second dynamic part'); continue }
     }
     pages.push({ path: route || '/', as: route.startsWith('/admin') ? 'hana' : route.startsWith('/audit') || route.startsWith('/records') ? 'felix' : 'amara' })
