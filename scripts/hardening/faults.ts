@@ -56,6 +56,7 @@ export async function databaseOutage(f: Fixtures, server: AppServer): Promise<Ou
       await sleep(50)
     }
   })()
+  let faultError: Error | undefined
   const faults = (async () => {
     await sleep(seconds * 1000 / 3)
     stoppedAt = Date.now() - t0
@@ -63,9 +64,17 @@ export async function databaseOutage(f: Fixtures, server: AppServer): Promise<Ou
     await sleep(seconds * 1000 / 3 - (Date.now() - t0 - stoppedAt))
     await postgresAsync('start')
     startedAt = Date.now() - t0
-  })()
+  })().catch((error: Error) => { faultError = error })
   const load = await runLoad(f.baseURL, { name: 'entry read with PostgreSQL stopped and started', method: 'GET', path, headers: { cookie: f.clients.amara.cookie }, deliberate: [503] }, seconds, LOAD_CONNECTIONS)
   await faults
+  if (faultError) {
+    probing = false
+    await probe
+    // Whatever happened, try to leave the cluster running for the rest of the run.
+    await postgresAsync('start').catch(() => {})
+    check(S, 'PostgreSQL stopped and started under load', false, `postgres.sh failed: ${faultError.message}`)
+    return undefined
+  }
   // Give recovery up to 20 s more if the load run ended before the first 200.
   const deadline = Date.now() + 20_000
   while (firstOkAfterStart === undefined && Date.now() < deadline) await sleep(100)

@@ -37,6 +37,13 @@ async function cleanup() {
 }
 for (const signal of ['SIGINT', 'SIGTERM'] as const)
   process.on(signal, () => { void cleanup().then(() => process.exit(130)) })
+// An error thrown where nothing awaits it must still stop the server and the cluster.
+for (const event of ['uncaughtException', 'unhandledRejection'] as const) {
+  process.on(event, (error: unknown) => {
+    check('harness', 'no uncaught error', false, (error as Error)?.stack?.split('\n').slice(0, 4).join(' ') ?? String(error))
+    void cleanup().then(() => { report(); process.exit(1) })
+  })
+}
 
 const load: LoadFigures[] = []
 const fuzz: FuzzOutcome[] = []
