@@ -83,7 +83,7 @@ export const ROUTES: RouteRow[] = [
   // Records, exports and verification (branch pdf)
   { method: 'POST', file: 'exports/index.post.ts', path: () => '/api/exports', as: 'felix', body: 'json', from: 'pdf', valid: f => ({ records: [{ entryId: f.ids.entry, version: 1 }] }) },
   { method: 'POST', file: 'exports/[id]/cancel.post.ts', path: () => '/api/exports/00000000-0000-4000-8000-000000000000/cancel', as: 'felix', body: 'none', from: 'pdf' },
-  { method: 'POST', file: 'verify.post.ts', path: () => '/api/verify', as: 'felix', body: 'json', from: 'pdf', valid: () => ({ record: {}, recordHash: '', signatures: [] }), note: 'also takes a PDF or multipart upload', limitMB: 26 },
+  { method: 'POST', file: 'verify.post.ts', path: () => '/api/verify', as: 'felix', body: 'json', from: 'pdf', valid: () => ({ record: {}, recordHash: '', signatures: [] }), note: 'also takes a PDF or multipart upload', limitMB: 21 },
   // Files (branch files)
   { method: 'POST', file: 'entries/[id]/attachments.post.ts', path: f => `/api/entries/${f.ids.fuzzEntry}/attachments`, as: 'amara', body: 'upload', from: 'files' },
   { method: 'DELETE', file: 'attachments/[id].delete.ts', path: () => '/api/attachments/00000000-0000-4000-8000-000000000000', as: 'amara', body: 'none', from: 'files' },

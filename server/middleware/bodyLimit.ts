@@ -12,7 +12,10 @@ import type { H3Event } from 'h3'
  *
  * Limits (bytes): JSON and other bodies 1 MB (THERMOTOME_BODY_LIMIT); the data-file upload
  * 21 MB (20 MB file + multipart framing; that route counts streamed bytes itself, so it is
- * only checked by its declared length here); the record check upload (/api/verify) 26 MB.
+ * only checked by its declared length here); the record check upload (/api/verify) likewise.
+ * A route that reads the raw request stream itself must be listed with `false` here: once
+ * this middleware has read a body, the stream is spent (readAttachmentRequestBody also takes
+ * a body already read from event._requestBody).
  */
 const MB = 1024 * 1024
 
@@ -24,7 +27,8 @@ function jsonLimit() {
 /** [path pattern, limit, read here?] — the first match wins. */
 const LIMITS: Array<[RegExp, () => number, boolean]> = [
   [/^\/api\/entries\/[^/]+\/attachments\/?$/, () => 21 * MB, false],
-  [/^\/api\/verify\/?$/, () => 26 * MB, true],
+  // /api/verify reads its body with readAttachmentRequestBody, which counts streamed bytes.
+  [/^\/api\/verify\/?$/, () => 21 * MB, false],
 ]
 
 function tooLarge(limit: number): never {
