@@ -31,7 +31,9 @@ export default defineNuxtConfig({
     demoMode: false,
     session: {
       maxAge: 60 * 60 * 8, // eight hours, then sign in again
-      cookie: { sameSite: 'lax' },
+      // HttpOnly always; Secure is added per request when it came over HTTPS
+      // (server/plugins/cookieSecurity.ts), so plain-HTTP loopback and LAN set-ups still sign in.
+      cookie: { sameSite: 'lax', httpOnly: true, secure: false },
     },
     public: {
       demoMode: false,

@@ -16,6 +16,10 @@ export default defineNitroPlugin((nitroApp) => {
       setResponseHeader(event, 'X-Frame-Options', 'DENY')
     if (path.startsWith('/api/'))
       setResponseHeader(event, 'Content-Security-Policy', "default-src 'none'; frame-ancestors 'none'")
+    else
+      // Redirects and error answers that never reach render:html get the page policy too
+      // (with no inline script allowed); rendered pages replace it with their hashes below.
+      setResponseHeader(event, 'Content-Security-Policy', contentSecurityPolicy(path, []))
   })
 
   nitroApp.hooks.hook('render:html', (html, { event }) => {

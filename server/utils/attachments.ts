@@ -29,6 +29,12 @@ export async function readAttachmentRequestBody(event: H3Event, limit = MAX_ATTA
   const declared = Number.parseInt(getRequestHeader(event, 'content-length') ?? '', 10)
   if (Number.isFinite(declared) && declared > limit)
     attachmentTooLarge()
+  // Already read (and counted) by server/middleware/bodyLimit.ts: the stream is spent.
+  if (Buffer.isBuffer(event._requestBody)) {
+    if (event._requestBody.length > limit)
+      attachmentTooLarge()
+    return event._requestBody
+  }
   const request = event.node.req
   const body = await new Promise<Buffer | undefined>((resolve, reject) => {
     const chunks: Buffer[] = []

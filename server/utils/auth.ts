@@ -11,12 +11,14 @@ export interface SessionPerson {
 
 /** Load a person with their roles; undefined when missing. */
 export async function findPerson(id: string): Promise<(SessionPerson & { disabled: boolean }) | undefined> {
-  const database = useDatabase()
-  const [person] = await database.select().from(people).where(eq(people.id, id)).limit(1)
+  // One round trip (every API request comes through here): the person joined with their roles.
+  const rows = await useDatabase().select({ person: people, role: personRoles.role }).from(people)
+    .leftJoin(personRoles, eq(personRoles.personId, people.id)).where(eq(people.id, id))
+  const person = rows[0]?.person
   if (!person)
     return undefined
-  const roles = await database.select({ role: personRoles.role }).from(personRoles).where(eq(personRoles.personId, id))
-  return { id: person.id, email: person.email, name: person.name, disabled: person.disabled, roles: roles.map(r => r.role).sort() }
+  const roles = rows.map(r => r.role).filter((role): role is Role => role !== null).sort()
+  return { id: person.id, email: person.email, name: person.name, disabled: person.disabled, roles }
 }
 
 /**

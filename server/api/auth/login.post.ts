@@ -16,8 +16,10 @@ export default defineEventHandler(async (event) => {
   }
 
   const [person] = await useDatabase().select().from(people).where(eq(sql`lower(${people.email})`, email)).limit(1)
-  decoyHash ??= await hashPassword('decoy password that never matches')
-  const passwordOk = await verifyPassword(person?.passwordHash ?? decoyHash, password)
+  const passwordOk = await signInGate(event, async () => {
+    decoyHash ??= await hashPassword('decoy password that never matches')
+    return verifyPassword(person?.passwordHash ?? decoyHash, password)
+  })
 
   if (!person || !passwordOk || person.disabled) {
     const reason = !person ? 'unknown e-mail' : !passwordOk ? 'wrong password' : 'account disabled'

@@ -10,8 +10,10 @@ export default defineEventHandler(async (event) => {
   const { id } = await validParams(event, paramsSchema)
   const entry = await readableEntry(person, id)
   const database = useDatabase()
-  const [author] = await database.select({ id: people.id, name: people.name, email: people.email }).from(people).where(eq(people.id, entry.authorId))
-  const [notebook] = await database.select({ id: notebooks.id, name: notebooks.name }).from(notebooks).where(eq(notebooks.id, entry.notebookId))
+  const [[author], [notebook]] = await Promise.all([
+    database.select({ id: people.id, name: people.name, email: people.email }).from(people).where(eq(people.id, entry.authorId)),
+    database.select({ id: notebooks.id, name: notebooks.name }).from(notebooks).where(eq(notebooks.id, entry.notebookId)),
+  ])
   return {
     entry,
     author,

@@ -37,10 +37,11 @@ export default defineEventHandler(async (event) => {
 
   const sha256 = attachmentSha256(part.data)
   const storageKey = `${entry.id}/${randomUUID()}`
-  await attachmentStorage().setItemRaw(storageKey, part.data)
   const database = useDatabase()
   let row
   try {
+    // Inside the try: a write cut short (full disk) must not leave a partial file behind.
+    await attachmentStorage().setItemRaw(storageKey, part.data)
     row = await database.transaction(async (tx) => {
       // Lock the entry so that it cannot be signed between the check above and this insert.
       const [current] = await tx.select({ state: entries.state }).from(entries).where(eq(entries.id, entry.id)).for('update')

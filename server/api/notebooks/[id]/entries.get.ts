@@ -33,13 +33,14 @@ export default defineEventHandler(async (event) => {
 
   const database = useDatabase()
   const order = query.direction === 'asc' ? asc(sortColumns[query.sort]) : desc(sortColumns[query.sort])
-  const rows = await database.select({
+  // The page and the total in parallel: two round trips at once instead of one after the other.
+  const [rows, [{ total } = { total: 0 }]] = await Promise.all([database.select({
     id: entries.id, title: entries.title, state: entries.state, version: entries.version,
     createdAt: entries.createdAt, updatedAt: entries.updatedAt,
     author: { id: people.id, name: people.name },
   }).from(entries).innerJoin(people, eq(people.id, entries.authorId))
     .where(where).orderBy(order, desc(entries.id))
-    .limit(query.pageSize).offset((query.page - 1) * query.pageSize)
-  const [{ total } = { total: 0 }] = await database.select({ total: count() }).from(entries).where(where)
+    .limit(query.pageSize).offset((query.page - 1) * query.pageSize),
+  database.select({ total: count() }).from(entries).where(where)])
   return { entries: rows, total, page: query.page, pageSize: query.pageSize, pages: Math.max(1, Math.ceil(total / query.pageSize)) }
 })

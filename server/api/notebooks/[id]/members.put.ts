@@ -20,8 +20,11 @@ export default defineEventHandler(async (event) => {
     if (missing.length)
       validationError([{ path: 'memberIds', message: `no such person: ${missing.join(', ')}` }], 'body')
   }
-  const before = (await database.select({ personId: notebookMembers.personId }).from(notebookMembers).where(eq(notebookMembers.notebookId, id))).map(r => r.personId)
   await database.transaction(async (tx) => {
+    // Lock the notebook so that two member changes at once run one after the other (otherwise
+    // both delete, both insert, and the second insert collides).
+    await tx.select({ id: notebooks.id }).from(notebooks).where(eq(notebooks.id, id)).for('update')
+    const before = (await tx.select({ personId: notebookMembers.personId }).from(notebookMembers).where(eq(notebookMembers.notebookId, id))).map(r => r.personId)
     await tx.delete(notebookMembers).where(eq(notebookMembers.notebookId, id))
     if (memberIds.length)
       await tx.insert(notebookMembers).values(memberIds.map(personId => ({ notebookId: id, personId })))
