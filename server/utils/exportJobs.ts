@@ -22,13 +22,20 @@ const recordKey = (jobId: string, index: number) => `${jobId}:records:${String(i
 const fileKey = (jobId: string, path: string) => `${jobId}:files:${path.replace(/\//g, ':')}`
 const sha256 = (data: Uint8Array) => createHash('sha256').update(data).digest('hex')
 
-/** Keeps the (entry, version) pairs this person may export: all for compliance/admin, else their own in their notebooks. */
+/** Keeps the signed (entry, version) pairs this person may export: all for compliance/admin, else their own in their notebooks. */
 async function keysThePersonMayExport(person: SessionPerson, keys: { entryId: string, version: number }[]) {
-  if (readsAllNotebooks(person) || keys.length === 0) return keys
+  if (keys.length === 0) return keys
   const entryIds = [...new Set(keys.map(key => key.entryId))]
   const allowed = new Set<string>()
   for (let index = 0; index < entryIds.length; index += 1000) {
     const slice = entryIds.slice(index, index + 1000)
+    if (readsAllNotebooks(person)) {
+      // Records officers export everything, but only versions that were signed (frozen).
+      const frozen = await useDatabase().select({ entryId: entryVersions.entryId, version: entryVersions.version }).from(entryVersions)
+        .where(inArray(entryVersions.entryId, slice))
+      for (const row of frozen) allowed.add(`${row.entryId}@${row.version}`)
+      continue
+    }
     const rows = await useDatabase().selectDistinct({ entryId: entryVersions.entryId, version: entryVersions.version }).from(entryVersions)
       .innerJoin(entries, eq(entries.id, entryVersions.entryId))
       .innerJoin(notebookMembers, and(eq(notebookMembers.notebookId, entries.notebookId), eq(notebookMembers.personId, person.id)))

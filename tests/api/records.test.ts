@@ -396,3 +396,14 @@ describe('audit trail CSV', () => {
     expect(bad.body.message).toMatch(/^from:/)
   })
 })
+
+describe('bulk export of something never signed', () => {
+  it('is refused up front (404 naming it), not failed later in the job', async () => {
+    const officer = await as('felix')
+    const drafts = (await officer.get('/api/notebooks')).body.notebooks
+    const entries = (await officer.get(`/api/notebooks/${drafts[0].id}/entries?state=draft`)).body.entries
+    const reply = await officer.post('/api/exports', { records: [{ entryId: entries[0].id, version: 1 }] })
+    expect(reply.status).toBe(404)
+    expect(reply.body.message).toMatch(/do not exist or are not yours to export/)
+  })
+})
