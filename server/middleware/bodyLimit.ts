@@ -1,4 +1,3 @@
-import type { H3Event } from 'h3'
 
 /**
  * Request body size limits. Neither Nitro nor h3 limits a body: readBody buffers whatever
@@ -39,33 +38,6 @@ function tooLarge(limit: number): never {
   })
 }
 
-function readLimited(event: H3Event, limit: number): Promise<Buffer | undefined> {
-  const request = event.node.req
-  return new Promise((resolve, reject) => {
-    const chunks: Buffer[] = []
-    let total = 0
-    const stop = () => {
-      request.off('data', onData)
-      request.off('end', onEnd)
-      request.off('error', onError)
-    }
-    function onData(chunk: Buffer) {
-      total += chunk.length
-      if (total > limit) {
-        stop()
-        // Drain the rest into nothing so that the 413 reaches the client.
-        request.resume()
-        resolve(undefined)
-        return
-      }
-      chunks.push(chunk)
-    }
-    function onEnd() { stop(); resolve(Buffer.concat(chunks)) }
-    function onError(error: Error) { stop(); reject(error) }
-    request.on('data', onData).on('end', onEnd).on('error', onError)
-  })
-}
-
 export default defineEventHandler(async (event) => {
   const method = event.method
   if (method === 'GET' || method === 'HEAD' || method === 'OPTIONS')
@@ -83,7 +55,7 @@ export default defineEventHandler(async (event) => {
   const chunked = /\bchunked\b/i.test(getRequestHeader(event, 'transfer-encoding') ?? '')
   if (!readHere || !(chunked || declared > 0))
     return
-  const body = await readLimited(event, limit)
+  const body = await readRequestCapped(event, limit)
   if (!body)
     tooLarge(limit)
   event._requestBody = body

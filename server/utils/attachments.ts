@@ -35,36 +35,7 @@ export async function readAttachmentRequestBody(event: H3Event, limit = MAX_ATTA
       attachmentTooLarge()
     return event._requestBody
   }
-  const request = event.node.req
-  const body = await new Promise<Buffer | undefined>((resolve, reject) => {
-    const chunks: Buffer[] = []
-    let total = 0
-    const stop = () => {
-      request.off('data', onData)
-      request.off('end', onEnd)
-      request.off('error', onError)
-    }
-    function onData(chunk: Buffer) {
-      total += chunk.length
-      if (total > limit) {
-        stop()
-        // Let the rest of the body drain into nothing so the 413 reaches the client.
-        request.resume()
-        resolve(undefined)
-        return
-      }
-      chunks.push(chunk)
-    }
-    function onEnd() {
-      stop()
-      resolve(Buffer.concat(chunks))
-    }
-    function onError(error: Error) {
-      stop()
-      reject(error)
-    }
-    request.on('data', onData).on('end', onEnd).on('error', onError)
-  })
+  const body = await readRequestCapped(event, limit)
   if (!body)
     attachmentTooLarge()
   return body
