@@ -13,6 +13,7 @@ const BOLTZMANN_CONSTANT = 1.380649e-23 // J/K, exact (CODATA 2018 / SI 2019)
 const JOULES_PER_WAVENUMBER = 1.986445857e-23 // hc in J per cm⁻¹ (CODATA 2018, exact h and c)
 
 const size = { width: 640, height: 300 }
+const LEVEL_TABLE_CHART_LIMIT = 5000
 type AnyRecord = Record<string, any>
 const isArray = (value: unknown): value is any[] => Array.isArray(value)
 
@@ -28,7 +29,9 @@ function levelsChart(result: AnyRecord, title: string): ChartOutput | null {
     return populationChart({ levels, energyUnit: 'cm⁻¹', scale: smallest < -3 ? 'log' : 'linear' }, { ...size, title })
   }
   const table = result.levelTable as AnyRecord | undefined
-  if (table && isArray(table.energies)) {
+  // Past a few thousand levels a population chart is a solid band of ink: the table lists the
+  // first levels and the record holds them all.
+  if (table && isArray(table.energies) && table.energies.length <= LEVEL_TABLE_CHART_LIMIT) {
     const levels = table.energies.map((energy: number, index: number) => ({
       label: `level ${index}`,
       energy,

@@ -25,6 +25,9 @@ export interface PresentOptions {
   title?: string
 }
 
+/** How many levels of a level table a block, the view and the PDF list. */
+export const LEVEL_TABLE_ROWS_SHOWN = 500
+
 /** Six significant digits for the tables: what a scientist copies into a report. */
 const number = (value: number | null | undefined, digits = 6) => (typeof value === 'number' && Number.isFinite(value) ? formatNumber(value, digits) : '—')
 const fraction = (value: number, log10: number) => (value > 0 ? number(value) : Number.isFinite(log10) ? formatFromLog10(log10, 6) : '0')
@@ -44,9 +47,13 @@ export function presentResult(kind: string, result: any, options: PresentOptions
   const scale = options.scale ?? 'linear'
   switch (kind) {
     case 'levels': {
-      const levels: any[] = result.levels ?? (result.levelTable?.energies ?? []).map((energy: number, index: number) => ({
-        label: null, energy: `${energy} ${result.levelTable.energyUnit}`, energyJ: Number.NaN, degeneracy: result.levelTable.degeneracies?.[index] ?? 1,
-        fraction: result.levelTable.fractions[index], log10Fraction: result.levelTable.log10Fractions[index], count: result.levelTable.counts?.[index],
+      // A level table can hold 10^6 levels: the block shows the first LEVEL_TABLE_ROWS_SHOWN of
+      // them in the given order (its columns may be typed arrays, so no array methods here).
+      const table = result.levelTable
+      const tableLength: number = table ? table.energies.length : 0
+      const levels: any[] = result.levels ?? Array.from({ length: Math.min(tableLength, LEVEL_TABLE_ROWS_SHOWN) }, (_, index) => ({
+        label: null, energy: `${table.energies[index]} ${table.energyUnit}`, energyJ: Number.NaN, degeneracy: table.degeneracies?.[index] ?? 1,
+        fraction: table.fractions[index], log10Fraction: table.log10Fractions[index], count: table.counts?.[index],
       }))
       const withCounts = levels.some(level => level.count !== undefined)
       return {
@@ -56,7 +63,9 @@ export function presentResult(kind: string, result: any, options: PresentOptions
           ...molarValues(result),
         ],
         tables: [{
-          caption: 'Populations by level',
+          caption: tableLength > LEVEL_TABLE_ROWS_SHOWN
+            ? `Populations by level: the first ${LEVEL_TABLE_ROWS_SHOWN} of ${tableLength.toLocaleString('en-US')} levels (the result holds every level)`
+            : 'Populations by level',
           headers: ['Level', 'Energy', 'g', 'Fraction', ...(withCounts ? ['Particles'] : [])],
           numeric: [false, true, true, true, true],
           rows: levels.map((level, index) => [

@@ -78,14 +78,17 @@ export function calculationsFromContent(content: unknown): Calculation[] {
     try {
       const evaluated = evaluate({ kind: block.kind, input: block.input })
       // canonicalJson refuses values JSON would alter (typed arrays, BigInt, NaN); after that the
-      // JSON round trip only drops undefined properties, which canonical JSON drops as well.
-      canonicalJson(evaluated.result)
+      // JSON round trip only drops undefined properties, which canonical JSON drops as well. The
+      // engine's result is JSON by construction: its long columns are typed arrays that write
+      // themselves as JSON arrays (shared/thermo/columns.ts), so it is checked in its JSON form.
+      const result = JSON.parse(JSON.stringify(evaluated.result))
+      canonicalJson(result)
       canonicalJson(block.input)
       calculations.push({
         blockId,
         kind: block.kind,
         input: JSON.parse(JSON.stringify(block.input)),
-        result: JSON.parse(JSON.stringify(evaluated.result)),
+        result,
         engineVersion: evaluated.engineVersion,
         warnings: [...evaluated.warnings],
       })

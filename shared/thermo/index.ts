@@ -5,6 +5,7 @@
 import { EngineInputError, type InputIssue } from './errors'
 import { registry, type KindDefinition } from './registry'
 import { issuesFromZod } from './schema'
+import { NumberColumn, isKnownFinite, isResultColumn } from './columns'
 
 export * from './constants'
 export { EngineInputError, type InputIssue } from './errors'
@@ -27,6 +28,7 @@ export {
 export { registry, type KindDefinition } from './registry'
 export { NUCLEI } from './kinds/spin'
 export { levelPopulations } from './kinds/levels'
+export { NumberColumn, FlagColumn, isResultColumn } from './columns'
 export { boltzmannStatistics, molarFunctions, logGamma, logFactorial, binomialBig } from './numerics'
 export { ENUMERATION_LIMIT } from './kinds/microstates'
 export type { LevelsResult, LevelPopulation, LevelTableResult } from './kinds/levels'
@@ -100,9 +102,13 @@ export function evaluate(request: EvaluationRequest): EvaluationResult {
   return { kind, engineVersion: `${ENGINE_VERSION}/${kind}@${definition.version}`, result, warnings }
 }
 
-/** Replaces NaN and ±Infinity by null in place so results stay JSON; returns whether any were found. */
+/**
+ * Replaces NaN and ±Infinity by null in place so results stay JSON; returns whether any were
+ * found. A result column keeps its numbers and writes non-finite ones as null in its JSON.
+ */
 function replaceNonFinite(value: unknown): boolean {
-  if (value === null || typeof value !== 'object') return false
+  if (value === null || typeof value !== 'object' || isKnownFinite(value)) return false
+  if (isResultColumn(value)) return value instanceof NumberColumn && !value.allFinite()
   let found = false
   if (Array.isArray(value)) {
     for (let index = 0; index < value.length; index++) {

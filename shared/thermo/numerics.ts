@@ -18,6 +18,10 @@ export interface LevelStatistics {
   energyVariance: number
   /** Index of the level with the largest population. */
   mostPopulatedIndex: number
+  /** Whether every β·E_i is finite, and so every fraction and log10 fraction written is finite. */
+  finite: boolean
+  /** How many fractions underflowed to 0 (their log10 fractions are still finite). */
+  underflowCount: number
 }
 
 /**
@@ -39,46 +43,34 @@ export function boltzmannStatistics(
 ): LevelStatistics {
   const count = energies.length
   const beta = energyScale / (BOLTZMANN_CONSTANT * temperature)
-  // Reduced energies βE in one typed array keep the hot loops monomorphic (one element kind).
-  const reduced = new Float64Array(count)
-  let lowest = Infinity
-  if (energies instanceof Float64Array) {
-    for (let index = 0; index < count; index++) {
-      const value = beta * energies[index]!
-      reduced[index] = value
-      if (value < lowest) lowest = value
-    }
-  } else {
-    for (let index = 0; index < count; index++) {
-      const value = beta * energies[index]!
-      reduced[index] = value
-      if (value < lowest) lowest = value
-    }
+  // β > 0 and rounding is monotonic, so min(β·E_i) is β·E_min exactly: one pass finds both ends.
+  let lowestEnergy = Infinity
+  let highestEnergy = -Infinity
+  for (let index = 0; index < count; index++) {
+    const value = energies[index]!
+    if (value < lowestEnergy) lowestEnergy = value
+    if (value > highestEnergy) highestEnergy = value
   }
-  let weights: Float64Array | null = null
-  if (degeneracies !== null) {
-    if (degeneracies instanceof Float64Array) weights = degeneracies
-    else {
-      // A counted loop: Float64Array.from goes through the iterator protocol, several times slower.
-      weights = new Float64Array(count)
-      for (let index = 0; index < count; index++) weights[index] = degeneracies[index]!
-    }
-  }
+  const lowest = beta * lowestEnergy
+  const finite = Number.isFinite(lowest) && Number.isFinite(beta * highestEnergy)
   const output = fractions ?? new Float64Array(count)
-  const moments = boltzmannKernel(reduced, weights, lowest, output, log10Fractions ?? null)
+  const moments = boltzmannKernel(energies, beta, degeneracies, lowest, output, log10Fractions ?? null)
   const kT = BOLTZMANN_CONSTANT * temperature
-  const lowestEnergy = lowest * kT
+  const lowestInJoules = lowest * kT
   const lnFromLowest = Math.log(moments.sum)
   return {
     lnPartitionFunctionFromLowest: lnFromLowest,
-    lowestEnergy,
+    lowestEnergy: lowestInJoules,
     lnPartitionFunction: lnFromLowest - lowest,
-    meanEnergy: lowestEnergy + moments.meanReduced * kT,
+    meanEnergy: lowestInJoules + moments.meanReduced * kT,
     energyVariance: moments.varianceReduced * kT * kT,
     mostPopulatedIndex: moments.mostPopulatedIndex,
+    finite,
+    underflowCount: moments.underflowCount,
   }
 }
 
+/** Degeneracies below this have their log10 in a table (written as a literal in the loop). */
 const SMALL_LOG10_LIMIT = 4096
 let smallLog10: Float64Array | null = null
 /** log10 n for n = 0 … 4095 (index 0 unused: degeneracies start at 1). */
@@ -90,71 +82,160 @@ function smallLog10Table(): Float64Array {
   return smallLog10
 }
 
+interface KernelMoments {
+  sum: number
+  firstMoment: number
+  secondMoment: number
+  mostPopulatedIndex: number
+}
+
 /**
- * The hot loop of boltzmannStatistics on typed arrays: weights w_i = g_i e^{-(x_i - x_min)},
- * their sum and first two moments, then normalised fractions and log10 fractions
- * log10 p_i = log10 g_i - (x_i - x_min)/ln 10 - log10 Σw.
+ * The hot loops of boltzmannStatistics, with x_i = β·E_i − x_min (energies and degeneracies as
+ * plain lists or typed arrays: the loops are as fast on either, so nothing is copied):
+ * 1. e^{−x_i} alone, the only call per level, so no running total has to survive the call;
+ * 2. weights w_i = g_i e^{−x_i}, their sum and first two moments, the largest, and
+ *    log10 g_i − x_i/ln 10 when log10 fractions are wanted;
+ * 3. fractions w_i/Σw and log10 p_i = (log10 g_i − x_i/ln 10) − log10 Σw.
+ * Each pass is its own small function so each is compiled on its own, and splitting the passes
+ * changes no operation and no order: the numbers are the same bits as from one fused loop.
  */
 export function boltzmannKernel(
-  reduced: Float64Array,
-  degeneracies: Float64Array | null,
+  energies: ArrayLike<number>,
+  beta: number,
+  degeneracies: ArrayLike<number> | null,
   lowest: number,
   fractions: Float64Array,
   log10Fractions: Float64Array | null,
-): { sum: number; meanReduced: number; varianceReduced: number; mostPopulatedIndex: number } {
-  const count = reduced.length
+): { sum: number; meanReduced: number; varianceReduced: number; mostPopulatedIndex: number; underflowCount: number } {
+  exponentials(energies, beta, lowest, fractions)
+  const moments =
+    degeneracies === null
+      ? log10Fractions === null ? momentsPlain(energies, beta, lowest, fractions) : momentsPlainLog(energies, beta, lowest, fractions, log10Fractions)
+      : log10Fractions === null ? momentsDegenerate(energies, beta, degeneracies, lowest, fractions) : momentsDegenerateLog(energies, beta, degeneracies, lowest, fractions, log10Fractions)
+  const sum = moments.sum
+  const inverseSum = 1 / sum
+  if (log10Fractions === null) normalise(fractions, inverseSum)
+  else normaliseWithLog(fractions, inverseSum, log10Fractions, Math.log10(sum))
+  const meanReduced = moments.firstMoment * inverseSum
+  return {
+    sum,
+    meanReduced,
+    varianceReduced: Math.max(0, moments.secondMoment * inverseSum - meanReduced * meanReduced),
+    mostPopulatedIndex: moments.mostPopulatedIndex,
+    underflowCount: countZeros(fractions),
+  }
+}
+
+function exponentials(energies: ArrayLike<number>, beta: number, lowest: number, out: Float64Array): void {
+  const count = energies.length
+  for (let index = 0; index < count; index++) out[index] = Math.exp(-(beta * energies[index]! - lowest))
+}
+
+function momentsPlain(energies: ArrayLike<number>, beta: number, lowest: number, weights: Float64Array): KernelMoments {
   let sum = 0
   let firstMoment = 0
   let secondMoment = 0
   let largest = -1
   let mostPopulatedIndex = 0
-  if (degeneracies === null) {
-    for (let index = 0; index < count; index++) {
-      const x = reduced[index]! - lowest
-      const weight = Math.exp(-x)
-      fractions[index] = weight
-      if (weight > largest) {
-        largest = weight
-        mostPopulatedIndex = index
-      }
-      sum += weight
-      firstMoment += weight * x
-      secondMoment += weight * x * x
+  for (let index = 0; index < energies.length; index++) {
+    const x = beta * energies[index]! - lowest
+    const weight = weights[index]!
+    if (weight > largest) {
+      largest = weight
+      mostPopulatedIndex = index
     }
-  } else {
-    for (let index = 0; index < count; index++) {
-      const x = reduced[index]! - lowest
-      const weight = degeneracies[index]! * Math.exp(-x)
-      fractions[index] = weight
-      if (weight > largest) {
-        largest = weight
-        mostPopulatedIndex = index
-      }
-      sum += weight
-      firstMoment += weight * x
-      secondMoment += weight * x * x
-    }
+    sum += weight
+    firstMoment += weight * x
+    secondMoment += weight * x * x
   }
-  const inverseSum = 1 / sum
-  for (let index = 0; index < count; index++) fractions[index] = fractions[index]! * inverseSum
-  if (log10Fractions !== null) {
-    const log10Sum = Math.log10(sum)
-    const inverseLn10 = 1 / LN10
-    if (degeneracies === null) {
-      for (let index = 0; index < count; index++) log10Fractions[index] = -(reduced[index]! - lowest) * inverseLn10 - log10Sum
-    } else {
-      // Degeneracies are whole numbers, mostly small: look their log10 up in a table.
-      const table = smallLog10Table()
-      for (let index = 0; index < count; index++) {
-        const degeneracy = degeneracies[index]!
-        const tabulated = table[degeneracy]
-        const log10Degeneracy = tabulated !== undefined && degeneracy >= 1 ? tabulated : Math.log10(degeneracy)
-        log10Fractions[index] = log10Degeneracy - (reduced[index]! - lowest) * inverseLn10 - log10Sum
-      }
+  return { sum, firstMoment, secondMoment, mostPopulatedIndex }
+}
+
+function momentsPlainLog(energies: ArrayLike<number>, beta: number, lowest: number, weights: Float64Array, logs: Float64Array): KernelMoments {
+  const inverseLn10 = 1 / LN10
+  let sum = 0
+  let firstMoment = 0
+  let secondMoment = 0
+  let largest = -1
+  let mostPopulatedIndex = 0
+  for (let index = 0; index < energies.length; index++) {
+    const x = beta * energies[index]! - lowest
+    const weight = weights[index]!
+    logs[index] = -x * inverseLn10
+    if (weight > largest) {
+      largest = weight
+      mostPopulatedIndex = index
     }
+    sum += weight
+    firstMoment += weight * x
+    secondMoment += weight * x * x
   }
-  const meanReduced = firstMoment * inverseSum
-  return { sum, meanReduced, varianceReduced: Math.max(0, secondMoment * inverseSum - meanReduced * meanReduced), mostPopulatedIndex }
+  return { sum, firstMoment, secondMoment, mostPopulatedIndex }
+}
+
+function momentsDegenerate(energies: ArrayLike<number>, beta: number, degeneracies: ArrayLike<number>, lowest: number, weights: Float64Array): KernelMoments {
+  let sum = 0
+  let firstMoment = 0
+  let secondMoment = 0
+  let largest = -1
+  let mostPopulatedIndex = 0
+  for (let index = 0; index < energies.length; index++) {
+    const x = beta * energies[index]! - lowest
+    const weight = degeneracies[index]! * weights[index]!
+    weights[index] = weight
+    if (weight > largest) {
+      largest = weight
+      mostPopulatedIndex = index
+    }
+    sum += weight
+    firstMoment += weight * x
+    secondMoment += weight * x * x
+  }
+  return { sum, firstMoment, secondMoment, mostPopulatedIndex }
+}
+
+function momentsDegenerateLog(energies: ArrayLike<number>, beta: number, degeneracies: ArrayLike<number>, lowest: number, weights: Float64Array, logs: Float64Array): KernelMoments {
+  // Degeneracies are whole numbers, mostly small: their log10 comes from a table.
+  const table = smallLog10Table()
+  const inverseLn10 = 1 / LN10
+  let sum = 0
+  let firstMoment = 0
+  let secondMoment = 0
+  let largest = -1
+  let mostPopulatedIndex = 0
+  for (let index = 0; index < energies.length; index++) {
+    const x = beta * energies[index]! - lowest
+    const degeneracy = degeneracies[index]!
+    const weight = degeneracy * weights[index]!
+    weights[index] = weight
+    const small = degeneracy | 0
+    logs[index] = (small === degeneracy && small > 0 && small < 4096 ? table[small]! : Math.log10(degeneracy)) - x * inverseLn10
+    if (weight > largest) {
+      largest = weight
+      mostPopulatedIndex = index
+    }
+    sum += weight
+    firstMoment += weight * x
+    secondMoment += weight * x * x
+  }
+  return { sum, firstMoment, secondMoment, mostPopulatedIndex }
+}
+
+function normalise(fractions: Float64Array, inverseSum: number): void {
+  for (let index = 0; index < fractions.length; index++) fractions[index] = fractions[index]! * inverseSum
+}
+
+function normaliseWithLog(fractions: Float64Array, inverseSum: number, logs: Float64Array, log10Sum: number): void {
+  for (let index = 0; index < fractions.length; index++) {
+    fractions[index] = fractions[index]! * inverseSum
+    logs[index] = logs[index]! - log10Sum
+  }
+}
+
+function countZeros(values: Float64Array): number {
+  let zeros = 0
+  for (let index = 0; index < values.length; index++) if (values[index] === 0) zeros++
+  return zeros
 }
 
 /** Molar thermodynamic functions of a level system (canonical ensemble of independent particles). */

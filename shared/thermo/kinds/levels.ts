@@ -5,6 +5,7 @@
  */
 import { z } from 'zod'
 import { AVOGADRO_CONSTANT, LN10 } from '../constants'
+import { FlagColumn, NumberColumn, markFinite } from '../columns'
 import { boltzmannStatistics, finiteOrNull, molarFunctions } from '../numerics'
 import { describeInput, labelField, quantityField, strictObject, wholeNumber } from '../schema'
 import { energyFactor, toParticleCount } from '../units'
@@ -20,26 +21,41 @@ function isNumberList(value: unknown): value is ArrayLike<number> {
   return Array.isArray(value) || value instanceof Float64Array || value instanceof Float32Array || value instanceof Int32Array
 }
 
-/** A long list of plain numbers, checked in one tight loop (zod per element would be slow at 10^6). */
-function numberColumn(what: string, accept: (value: number) => boolean) {
+/** Index of the first entry that is not a finite number, or -1 (one tight loop: zod per element would be slow at 10^6). */
+function firstNonFinite(values: ArrayLike<number>, from: number): number {
+  for (let index = from; index < values.length; index++) {
+    const value = values[index]
+    if (typeof value !== 'number' || value - value !== 0) return index
+  }
+  return -1
+}
+
+/** Index of the first entry that is not a whole number of at least 1, or -1. */
+function firstNonDegeneracy(values: ArrayLike<number>, from: number): number {
+  for (let index = from; index < values.length; index++) {
+    const value = values[index]
+    if (typeof value !== 'number' || !(value >= 1) || Math.floor(value) !== value || value === Infinity) return index
+  }
+  return -1
+}
+
+/** A long list of plain numbers (or a typed array), checked by `firstBad`; at most five bad entries are named. */
+function numberColumn(what: string, firstBad: (values: ArrayLike<number>, from: number) => number) {
   return z
     .custom<ArrayLike<number>>(isNumberList, { error: (issue) => `expected a list of ${what}, got ${describeInput(issue.input)}` })
     .superRefine((values, context) => {
-      let reported = 0
-      for (let index = 0; index < values.length; index++) {
-        const value = values[index]
-        if (typeof value !== 'number' || !accept(value)) {
-          context.addIssue({ code: 'custom', message: `expected ${what}, got ${describeInput(value)}`, path: [index] })
-          if (++reported >= 5) return
-        }
+      let index = firstBad(values, 0)
+      for (let reported = 0; index >= 0 && reported < 5; reported++) {
+        context.addIssue({ code: 'custom', message: `expected ${what}, got ${describeInput(values[index])}`, path: [index] })
+        index = firstBad(values, index + 1)
       }
     })
 }
 
 const levelTable = strictObject({
   energyUnit: quantityField("cm^-1", (text) => ({ text: text.trim(), factor: energyFactor(text, '') })),
-  energies: numberColumn('energies as finite numbers', Number.isFinite),
-  degeneracies: numberColumn('degeneracies as whole numbers of at least 1', (value) => Number.isInteger(value) && value >= 1).optional(),
+  energies: numberColumn('energies as finite numbers', firstNonFinite),
+  degeneracies: numberColumn('degeneracies as whole numbers of at least 1', firstNonDegeneracy).optional(),
   labels: z.array(z.string({ error: 'expected a label as text' })).optional(),
 })
 
@@ -96,14 +112,18 @@ export interface LevelPopulation {
   belowOneParticle?: boolean
 }
 
+/**
+ * The populations of a level table as columns, one entry per level. The columns are typed arrays
+ * written as plain JSON arrays (see columns.ts); energies and degeneracies echo the input, in its energy unit.
+ */
 export interface LevelTableResult {
   energyUnit: string
-  energies: number[]
-  degeneracies: number[] | null
-  fractions: number[]
-  log10Fractions: number[]
-  counts?: number[]
-  belowOneParticle?: boolean[]
+  energies: ArrayLike<number>
+  degeneracies: ArrayLike<number> | null
+  fractions: NumberColumn
+  log10Fractions: NumberColumn
+  counts?: NumberColumn
+  belowOneParticle?: FlagColumn
 }
 
 export interface LevelsResult {
@@ -155,31 +175,40 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
     energies = energyArray
     degeneracies = degeneracyArray
   } else {
-    energies = table!.energies
-    degeneracies = table!.degeneracies ?? null
+    // The statistics read the input lists as they are; the result echoes them (a typed array as a column).
+    energies = echoColumn(table!.energies)
+    degeneracies = table!.degeneracies ? echoColumn(table!.degeneracies) : null
     scale = table!.energyUnit.factor
   }
-  const fractions = new Float64Array(count)
-  const log10Fractions = new Float64Array(count)
+  // Level tables get result columns (typed arrays written as JSON arrays); level rows copy the
+  // numbers into one object per level below.
+  const fractions = table ? new NumberColumn(count) : new Float64Array(count)
+  const log10Fractions = table ? new NumberColumn(count) : new Float64Array(count)
   const statistics = boltzmannStatistics(energies, degeneracies, temperature, fractions, log10Fractions, scale)
   const molar = molarFunctions(statistics, temperature)
   const particleCount = input.amount
-  let counts: number[] | undefined
-  let below: boolean[] | undefined
+  let counts: NumberColumn | undefined
+  let below: FlagColumn | undefined
   let belowCount = 0
   if (particleCount !== undefined) {
-    counts = new Array<number>(count)
-    below = new Array<boolean>(count)
+    counts = new NumberColumn(count)
+    below = new FlagColumn(count)
     for (let index = 0; index < count; index++) {
       const expected = fractions[index]! * particleCount
       counts[index] = expected
-      const isBelow = expected < 1
-      below[index] = isBelow
-      if (isBelow) belowCount++
+      if (expected < 1) {
+        below[index] = 1
+        belowCount++
+      }
     }
+    // A fraction is at most 1, so every count is finite when the fractions and the amount are.
+    if (statistics.finite && Number.isFinite(particleCount)) markFinite(counts)
   }
-  let underflowCount = 0
-  for (let index = 0; index < count; index++) if (fractions[index] === 0) underflowCount++
+  const underflowCount = statistics.underflowCount
+  if (table && statistics.finite) {
+    markFinite(fractions)
+    markFinite(log10Fractions)
+  }
 
   if (belowCount > 0) {
     warnings.push(
@@ -221,7 +250,7 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
       }
       if (counts) {
         level.count = counts[index]!
-        level.belowOneParticle = below![index]!
+        level.belowOneParticle = below![index] === 1
       }
       levels[index] = level
     }
@@ -229,10 +258,10 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
   } else {
     const tableResult: LevelTableResult = {
       energyUnit: table!.energyUnit.text,
-      energies: Array.isArray(table!.energies) ? (table!.energies as number[]) : Array.from(table!.energies),
-      degeneracies: table!.degeneracies ? (Array.isArray(table!.degeneracies) ? (table!.degeneracies as number[]) : Array.from(table!.degeneracies)) : null,
-      fractions: plainArray(fractions),
-      log10Fractions: plainArray(log10Fractions),
+      energies,
+      degeneracies,
+      fractions: fractions as NumberColumn,
+      log10Fractions: log10Fractions as NumberColumn,
     }
     if (counts) {
       tableResult.counts = counts
@@ -243,13 +272,15 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
   return result
 }
 
-/** Copies a typed array into a plain array (results must be plain JSON for signed records). */
-function plainArray(values: Float64Array): number[] {
-  // Filled with a double (NaN) so V8 allocates double storage once; filling with 0 starts as
-  // small integers and converts the whole array on the first fraction (about twice as slow).
-  const plain = new Array<number>(values.length).fill(Number.NaN)
-  for (let index = 0; index < values.length; index++) plain[index] = values[index]!
-  return plain
+/**
+ * An input list for the result: a plain list as given (the schema has checked every number, so
+ * the final scan skips it), a typed array copied into a column so that it writes as a JSON array.
+ */
+function echoColumn(values: ArrayLike<number>): ArrayLike<number> {
+  if (Array.isArray(values)) return markFinite(values)
+  const column = new NumberColumn(values.length)
+  column.set(values)
+  return markFinite(column)
 }
 
 /**

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { evaluate, listKinds } from '../../../shared/thermo'
-import { presentResult } from '../../../shared/editor/results'
+import { LEVEL_TABLE_ROWS_SHOWN, presentResult } from '../../../shared/editor/results'
 
 /** Reads a number as formatNumber writes it ("2.5×10⁻⁵", "−3"). */
 function screenNumber(text: string): number {
@@ -41,5 +41,19 @@ describe('presentResult', () => {
     const { result } = evaluate({ kind: 'levels', input: kind.exampleInput })
     expect(presentResult('levels', result, { scale: 'linear' }).chart!.alt).toMatch(/linear/)
     expect(presentResult('levels', result, { scale: 'log' }).chart!.alt).toMatch(/log/)
+  })
+
+  it('lists the first levels of a large level table, from typed or plain columns, and says how many there are', () => {
+    const count = 20_000
+    const energies = Float64Array.from({ length: count }, (_, index) => index * 0.5)
+    const { result } = evaluate({ kind: 'levels', input: { levelTable: { energyUnit: 'cm^-1', energies }, temperature: '300 K' } })
+    const presented = presentResult('levels', result)
+    const table = presented.tables[0]!
+    expect(table.rows).toHaveLength(LEVEL_TABLE_ROWS_SHOWN)
+    expect(table.caption).toContain('20,000')
+    expect(table.rows[1]![1]).toBe('0.5 cm^-1')
+    expect(screenNumber(table.rows[0]![3]!)).toBeCloseTo(result.levelTable.fractions[0], 8)
+    const fromJson = presentResult('levels', JSON.parse(JSON.stringify(result)))
+    expect(fromJson.tables[0]!.rows).toEqual(table.rows)
   })
 })

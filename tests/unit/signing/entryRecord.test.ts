@@ -110,3 +110,15 @@ describe('buildEntryRecord', () => {
     expect(differences[0]).toMatchObject({ blockId: 'b1', what: 'result' })
   })
 })
+
+describe('a level table in a record', () => {
+  it('is recorded as plain JSON arrays and recomputes to the same canonical JSON', () => {
+    const tableInput = { temperature: '300 K', levelTable: { energyUnit: 'cm^-1', energies: [0, 120.5, 480], degeneracies: [1, 3, 5] } }
+    const calculations = calculationsFromContent({ type: 'doc', content: [block('t1', 'levels', tableInput)] })
+    const result = calculations[0]!.result as { levelTable: { fractions: unknown } }
+    expect(Array.isArray(result.levelTable.fractions)).toBe(true)
+    expect((result.levelTable.fractions as number[]).reduce((sum, value) => sum + value, 0)).toBeCloseTo(1, 14)
+    const record = buildEntryRecord(source({ type: 'doc', content: [block('t1', 'levels', tableInput)] }))
+    expect(recomputeCalculations(record)).toEqual([])
+  })
+})
