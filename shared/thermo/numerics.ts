@@ -40,16 +40,23 @@ export function boltzmannStatistics(
   fractions?: Float64Array,
   log10Fractions?: Float64Array,
   energyScale = 1,
+  /** The lowest and highest energy when the caller already knows them (found while checking the input). */
+  range?: { lowest: number; highest: number },
 ): LevelStatistics {
   const count = energies.length
   const beta = energyScale / (BOLTZMANN_CONSTANT * temperature)
   // β > 0 and rounding is monotonic, so min(β·E_i) is β·E_min exactly: one pass finds both ends.
   let lowestEnergy = Infinity
   let highestEnergy = -Infinity
-  for (let index = 0; index < count; index++) {
-    const value = energies[index]!
-    if (value < lowestEnergy) lowestEnergy = value
-    if (value > highestEnergy) highestEnergy = value
+  if (range) {
+    lowestEnergy = range.lowest
+    highestEnergy = range.highest
+  } else {
+    for (let index = 0; index < count; index++) {
+      const value = energies[index]!
+      if (value < lowestEnergy) lowestEnergy = value
+      if (value > highestEnergy) highestEnergy = value
+    }
   }
   const lowest = beta * lowestEnergy
   const finite = Number.isFinite(lowest) && Number.isFinite(beta * highestEnergy)
@@ -114,15 +121,14 @@ export function boltzmannKernel(
       : log10Fractions === null ? momentsDegenerate(energies, beta, degeneracies, lowest, fractions) : momentsDegenerateLog(energies, beta, degeneracies, lowest, fractions, log10Fractions)
   const sum = moments.sum
   const inverseSum = 1 / sum
-  if (log10Fractions === null) normalise(fractions, inverseSum)
-  else normaliseWithLog(fractions, inverseSum, log10Fractions, Math.log10(sum))
+  const underflowCount = log10Fractions === null ? normalise(fractions, inverseSum) : normaliseWithLog(fractions, inverseSum, log10Fractions, Math.log10(sum))
   const meanReduced = moments.firstMoment * inverseSum
   return {
     sum,
     meanReduced,
     varianceReduced: Math.max(0, moments.secondMoment * inverseSum - meanReduced * meanReduced),
     mostPopulatedIndex: moments.mostPopulatedIndex,
-    underflowCount: countZeros(fractions),
+    underflowCount,
   }
 }
 
@@ -221,20 +227,26 @@ function momentsDegenerateLog(energies: ArrayLike<number>, beta: number, degener
   return { sum, firstMoment, secondMoment, mostPopulatedIndex }
 }
 
-function normalise(fractions: Float64Array, inverseSum: number): void {
-  for (let index = 0; index < fractions.length; index++) fractions[index] = fractions[index]! * inverseSum
+/** Normalises the weights into fractions and returns how many underflowed to 0. */
+function normalise(fractions: Float64Array, inverseSum: number): number {
+  let zeros = 0
+  for (let index = 0; index < fractions.length; index++) {
+    const fraction = fractions[index]! * inverseSum
+    fractions[index] = fraction
+    if (fraction === 0) zeros++
+  }
+  return zeros
 }
 
-function normaliseWithLog(fractions: Float64Array, inverseSum: number, logs: Float64Array, log10Sum: number): void {
+/** The same, and subtracts log10 Σw from the stored log10 g_i − x_i/ln 10. */
+function normaliseWithLog(fractions: Float64Array, inverseSum: number, logs: Float64Array, log10Sum: number): number {
+  let zeros = 0
   for (let index = 0; index < fractions.length; index++) {
-    fractions[index] = fractions[index]! * inverseSum
+    const fraction = fractions[index]! * inverseSum
+    fractions[index] = fraction
+    if (fraction === 0) zeros++
     logs[index] = logs[index]! - log10Sum
   }
-}
-
-function countZeros(values: Float64Array): number {
-  let zeros = 0
-  for (let index = 0; index < values.length; index++) if (values[index] === 0) zeros++
   return zeros
 }
 

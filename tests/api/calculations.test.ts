@@ -18,6 +18,19 @@ describe('POST /api/calculations', () => {
     })
   })
 
+  it('answers a level table with plain JSON arrays, one entry per level, in every column', async () => {
+    const request = { kind: 'levels', input: { temperature: '300 K', amount: 200, levelTable: { energyUnit: 'cm^-1', energies: [0, 208.5, 1500], degeneracies: [1, 2, 3] } } }
+    const reply = await scientist.post('/api/calculations', request)
+    expect(reply.status).toBe(200)
+    const table = reply.body.result.levelTable
+    const local = JSON.parse(JSON.stringify(evaluate(request).result)).levelTable
+    for (const column of ['energies', 'degeneracies', 'fractions', 'log10Fractions', 'counts', 'belowOneParticle']) {
+      expect(Array.isArray(table[column]), column).toBe(true)
+      expect(table[column], column).toEqual(local[column])
+    }
+    expect(table.belowOneParticle).toEqual([false, false, true])
+  })
+
   it('common practice: an upper level at kT (208.5 cm^-1 at 300 K) holds e^-1/(1+e^-1) ≈ 0.269', async () => {
     // kT/hc at 300 K = 208.5 cm^-1 (from the second radiation constant c2 = 1.438776877 cm K).
     const kT = 300 / 1.438776877

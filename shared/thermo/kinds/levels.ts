@@ -52,9 +52,37 @@ function numberColumn(what: string, firstBad: (values: ArrayLike<number>, from: 
     })
 }
 
+/** A checked energy column with its lowest and highest value, found in the same pass as the check. */
+export interface EnergyColumn {
+  values: ArrayLike<number>
+  lowest: number
+  highest: number
+}
+
+const ENERGIES_EXPECTED = 'energies as finite numbers'
+const energyColumn = z
+  .custom<ArrayLike<number>>(isNumberList, { error: (issue) => `expected a list of ${ENERGIES_EXPECTED}, got ${describeInput(issue.input)}` })
+  .transform((values, context): EnergyColumn => {
+    let lowest = Infinity
+    let highest = -Infinity
+    for (let index = 0; index < values.length; index++) {
+      const value = values[index]
+      if (typeof value !== 'number' || value - value !== 0) {
+        for (let reported = 0; index >= 0 && reported < 5; reported++) {
+          context.issues.push({ code: 'custom', message: `expected ${ENERGIES_EXPECTED}, got ${describeInput(values[index])}`, path: [index], input: values[index] })
+          index = firstNonFinite(values, index + 1)
+        }
+        return z.NEVER
+      }
+      if (value < lowest) lowest = value
+      if (value > highest) highest = value
+    }
+    return { values, lowest, highest }
+  })
+
 const levelTable = strictObject({
   energyUnit: quantityField("cm^-1", (text) => ({ text: text.trim(), factor: energyFactor(text, '') })),
-  energies: numberColumn('energies as finite numbers', firstNonFinite),
+  energies: energyColumn,
   degeneracies: numberColumn('degeneracies as whole numbers of at least 1', firstNonDegeneracy).optional(),
   labels: z.array(z.string({ error: 'expected a label as text' })).optional(),
 })
@@ -84,12 +112,13 @@ export const levelsSchema = strictObject({
   }
   const table = input.levelTable
   if (table) {
-    if (table.energies.length === 0) context.addIssue({ code: 'custom', message: 'the level list is empty: give at least one energy', path: ['levelTable', 'energies'] })
-    if (table.degeneracies && table.degeneracies.length !== table.energies.length) {
-      context.addIssue({ code: 'custom', message: `expected one degeneracy per energy (${table.energies.length}), got ${table.degeneracies.length}`, path: ['levelTable', 'degeneracies'] })
+    const energyCount = table.energies.values.length
+    if (energyCount === 0) context.addIssue({ code: 'custom', message: 'the level list is empty: give at least one energy', path: ['levelTable', 'energies'] })
+    if (table.degeneracies && table.degeneracies.length !== energyCount) {
+      context.addIssue({ code: 'custom', message: `expected one degeneracy per energy (${energyCount}), got ${table.degeneracies.length}`, path: ['levelTable', 'degeneracies'] })
     }
-    if (table.labels && table.labels.length !== table.energies.length) {
-      context.addIssue({ code: 'custom', message: `expected one label per energy (${table.energies.length}), got ${table.labels.length}`, path: ['levelTable', 'labels'] })
+    if (table.labels && table.labels.length !== energyCount) {
+      context.addIssue({ code: 'custom', message: `expected one label per energy (${energyCount}), got ${table.labels.length}`, path: ['levelTable', 'labels'] })
     }
   }
 })
@@ -161,10 +190,11 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
   const temperature = input.temperature
   const rows = input.levels
   const table = input.levelTable
-  const count = rows ? rows.length : table!.energies.length
+  const count = rows ? rows.length : table!.energies.values.length
   let energies: ArrayLike<number>
   let degeneracies: ArrayLike<number> | null
   let scale = 1
+  let range: EnergyColumn | undefined
   if (rows) {
     const energyArray = new Float64Array(count)
     const degeneracyArray = new Float64Array(count)
@@ -176,7 +206,8 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
     degeneracies = degeneracyArray
   } else {
     // The statistics read the input lists as they are; the result echoes them (a typed array as a column).
-    energies = echoColumn(table!.energies)
+    energies = echoColumn(table!.energies.values)
+    range = table!.energies
     degeneracies = table!.degeneracies ? echoColumn(table!.degeneracies) : null
     scale = table!.energyUnit.factor
   }
@@ -184,7 +215,7 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
   // numbers into one object per level below.
   const fractions = table ? new NumberColumn(count) : new Float64Array(count)
   const log10Fractions = table ? new NumberColumn(count) : new Float64Array(count)
-  const statistics = boltzmannStatistics(energies, degeneracies, temperature, fractions, log10Fractions, scale)
+  const statistics = boltzmannStatistics(energies, degeneracies, temperature, fractions, log10Fractions, scale, range)
   const molar = molarFunctions(statistics, temperature)
   const particleCount = input.amount
   let counts: NumberColumn | undefined
