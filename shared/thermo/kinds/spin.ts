@@ -14,7 +14,8 @@ import { temperatureField } from './common'
  * Gyromagnetic ratios in rad s^-1 T^-1 and spins. 1H: CODATA 2018 proton gyromagnetic ratio
  * γ_p = 2.675 221 8744 × 10^8 s^-1 T^-1 (bare proton). The others: Harris et al., NMR
  * nomenclature, Pure Appl. Chem. 73, 1795 (2001), Table 1 (γ/10^7 rad s^-1 T^-1: 13C 6.728 284,
- * 15N -2.712 618 04, 19F 25.181 48, 31P 10.8394; quoted from memory of that table).
+ * 15N -2.712 618 04, 19F 25.181 48, 31P 10.8394; quoted from memory of that table, and checked
+ * against its frequency ratios Ξ to 10^-3 in tests/unit/thermo/references.test.ts).
  */
 export const NUCLEI = {
   '1H': { gyromagneticRatio: 2.6752218744e8, spin: 0.5, source: 'CODATA 2018 (proton)' },

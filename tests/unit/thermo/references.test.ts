@@ -104,6 +104,26 @@ describe('Nuclear spin polarization', () => {
     const result = evaluate({ kind: 'spin', input: { gyromagneticRatio: '2.6752218744e8 s^-1 T^-1', spinQuantumNumber: '1/2', field: '9.4 T', temperature: '298.15 K' } }).result
     expect(result.polarization).toBeCloseTo(3.2212e-5, 8)
   })
+
+  // The table's γ for 13C, 15N, 19F and 31P were written from memory of Harris et al. (2001). An
+  // independent check: the Larmor frequency of each nucleus over that of 1H in the same field.
+  // Reference: the frequency ratios Ξ of the IUPAC recommendations (Harris et al., Pure Appl.
+  // Chem. 73, 1795 (2001), Table 1: 13C 25.145020 %, 15N 10.136767 %, 19F 94.094011 %, 31P
+  // 40.480742 %; the same ratios appear in Bruker's NMR frequency tables (2012), e.g. 13C at
+  // 100.613 MHz beside 1H at 400.130 MHz). Ξ is measured on reference compounds (TMS, CH3NO2,
+  // CFCl3, 85 % H3PO4) rather than bare nuclei, so the two ratios differ by shielding: here by
+  // 2 × 10⁻⁴ (13C) to 9 × 10⁻⁴ (31P). The check therefore allows 10⁻³: it catches a wrong
+  // leading digit or exponent, not an error in the last digits.
+  it.each([
+    ['13C', 0.25145020],
+    ['15N', 0.10136767],
+    ['19F', 0.94094011],
+    ['31P', 0.40480742],
+  ])('%s: Larmor frequency over that of 1H agrees with the IUPAC ratio Ξ', (nucleus, xi) => {
+    const input = (name: string) => ({ kind: 'spin', input: { nucleus: name, field: '9.4 T', temperature: '298.15 K' } })
+    const ratio = evaluate(input(nucleus)).result.larmorFrequency / evaluate(input('1H')).result.larmorFrequency
+    expect(Math.abs(ratio / xi - 1)).toBeLessThan(1e-3)
+  })
 })
 
 describe('Einstein solid', () => {
