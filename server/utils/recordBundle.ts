@@ -1,8 +1,9 @@
 import { and, asc, desc, eq } from 'drizzle-orm'
-import { buildBundle, type RecordBundle, type RecordDocument, type SigningStatement } from '#shared/records'
-import { auditEvents, entries, entryVersions, people, signatures, signingKeys, type Entry, type EntryState } from '../database/schema'
+import type { RecordBundle } from '#shared/records'
+import { auditEvents, entries, entryVersions, signatures, type Entry, type EntryState } from '../database/schema'
 import type { PdfAuditEvent } from '../pdf/document'
 import type { SessionPerson } from './auth'
+import { signingBundleOf } from './recordVerify'
 
 /** Everything a record export needs, read from the frozen tables. */
 export interface ExportRecord {
@@ -19,9 +20,8 @@ export interface ExportRecord {
 export const READ_ONLY_RECORD_ACTIONS = ['record_exported', 'record_bundle_downloaded', 'record_verified']
 
 /**
- * Builds the bundle of one signed entry version from entry_versions, signatures and
- * signing_keys (named so as not to clash with the signing routes' own loader). Null when the
- * entry has no such frozen version.
+ * One signed entry version with what an export needs besides its bundle (the entry, its state,
+ * signers and audit events). Null when the entry has no such frozen version.
  */
 export async function loadBundleForExport(entryId: string, version?: number): Promise<ExportRecord | null> {
   const database = useDatabase()
@@ -31,24 +31,10 @@ export async function loadBundleForExport(entryId: string, version?: number): Pr
     .where(version === undefined ? eq(entryVersions.entryId, entryId) : and(eq(entryVersions.entryId, entryId), eq(entryVersions.version, version)))
     .orderBy(desc(entryVersions.version)).limit(1)
   if (!frozen) return null
-  const rows = await database.select({ signature: signatures, key: signingKeys, signer: { id: people.id, name: people.name, email: people.email } })
-    .from(signatures)
-    .innerJoin(signingKeys, eq(signingKeys.id, signatures.keyId))
-    .innerJoin(people, eq(people.id, signingKeys.personId))
-    .where(eq(signatures.entryVersionId, frozen.id))
-    .orderBy(asc(signatures.signedAt), asc(signatures.id))
-  const keys = new Map<string, RecordBundle['publicKeys'][number]>()
-  for (const { key, signer } of rows) {
-    keys.set(key.fingerprint, {
-      fingerprint: key.fingerprint, publicKey: key.publicKey, owner: signer,
-      createdAt: key.createdAt.toISOString(), retiredAt: key.retiredAt ? key.retiredAt.toISOString() : null,
-    })
-  }
-  const bundle = await buildBundle({
-    record: frozen.record as RecordDocument,
-    signatures: rows.map(({ signature, key }) => ({ statement: signature.statement as SigningStatement, signature: signature.signature, publicKey: key.publicKey, id: signature.id })),
-    publicKeys: [...keys.values()],
-  })
+  // The same bundle the signing routes serve (GET /api/records/:id/bundle): one builder, so an
+  // export and a bundle download of one version are the same bytes.
+  const bundle = await signingBundleOf(database, frozen)
+  const signerRows = await database.select({ signerId: signatures.signerId }).from(signatures).where(eq(signatures.entryVersionId, frozen.id))
   const events = await database.select({
     sequence: auditEvents.sequence, occurredAt: auditEvents.occurredAt, action: auditEvents.action,
     actorEmail: auditEvents.actorEmail, details: auditEvents.details,
@@ -59,7 +45,7 @@ export async function loadBundleForExport(entryId: string, version?: number): Pr
     entry,
     version: frozen.version,
     state: frozen.version < entry.version ? 'superseded' : entry.state,
-    signerIds: [...new Set(rows.map(row => row.signature.signerId))],
+    signerIds: [...new Set(signerRows.map(row => row.signerId))],
     auditEvents: events
       .filter(event => !READ_ONLY_RECORD_ACTIONS.includes(event.action))
       .map(event => ({ ...event, occurredAt: event.occurredAt.toISOString() })),

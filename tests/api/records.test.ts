@@ -7,7 +7,7 @@ import { fileURLToPath } from 'node:url'
 import pg from 'pg'
 import { beforeAll, describe, expect, inject, it } from 'vitest'
 import yauzl from 'yauzl'
-import { verifyBundle, type RecordBundle } from '../../shared/records'
+import { canonicalJson, verifyBundle, type RecordBundle } from '../../shared/records'
 import { as, baseURL, type Client } from '../support/http'
 import { createSignedRecord, type StoredRecord } from '../support/signedRecords'
 
@@ -162,6 +162,12 @@ describe('bundle JSON and verification', () => {
     expect(reply.status).toBe(200)
     expect(reply.body.ok).toBe(true)
     expect(reply.body.record.entryId).toBe(record.entryId)
+  })
+
+  it('is the same bundle, byte for byte, as the signing routes serve for that version', async () => {
+    const reply = await download(amara, `/api/records/${record.entryId}/bundle`)
+    expect(reply.status).toBe(200)
+    expect(canonicalJson(JSON.parse(new TextDecoder().decode(reply.bytes)))).toBe(canonicalJson(bundle))
   })
 
   it('fails a tampered bundle with 422 and says what failed (API and command line)', async () => {
