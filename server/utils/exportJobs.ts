@@ -1,15 +1,20 @@
 import { Readable } from 'node:stream'
 import { createHash } from 'node:crypto'
-import { and, eq, inArray, sql } from 'drizzle-orm'
+import { and, eq, inArray, isNotNull, lt, sql } from 'drizzle-orm'
 import { ZipArchive } from 'archiver'
 import { MAX_EXPORT_RECORDS, type ExportRequest } from '#shared/schemas/records'
 import { canonicalJson } from '#shared/records'
 import { entries, entryVersions, exportJobs, notebookMembers, signatures, type ExportJob } from '../database/schema'
 import type { SessionPerson } from './auth'
+import { recordAudit } from './audit'
+import type { Database } from './db'
 
 /** A job whose heartbeat is older than this was abandoned (its server stopped) and may be resumed. */
 export const EXPORT_HEARTBEAT_STALE_MS = 30_000
 const HEARTBEAT_EVERY_MS = 5_000
+/** Days the files of a finished export are kept unless THERMOTOME_EXPORT_RETENTION_DAYS says otherwise. */
+export const DEFAULT_EXPORT_RETENTION_DAYS = 7
+const DAY_MS = 24 * 60 * 60 * 1000
 
 interface ExportParameters {
   request: ExportRequest
@@ -166,9 +171,78 @@ export async function runExportJob(jobId: string): Promise<void> {
   }
 }
 
-export async function removeExportFiles(jobId: string) {
-  const storage = exportStorage()
+type ExportFileStore = Pick<ReturnType<typeof exportStorage>, 'getKeys' | 'removeItem'>
+
+export async function removeExportFiles(jobId: string, storage: ExportFileStore = exportStorage()) {
   for (const key of await storage.getKeys(`${jobId}:`)) await storage.removeItem(key)
+}
+
+const retentionWarnings = new Set<string>()
+
+/**
+ * How many days the files of a finished export are kept: THERMOTOME_EXPORT_RETENTION_DAYS, a
+ * positive number (fractions allowed), 7 when unset. Any other value is reported once and 7 used.
+ */
+export function exportRetentionDays(): number {
+  const configured = process.env.THERMOTOME_EXPORT_RETENTION_DAYS
+  if (configured === undefined || configured.trim() === '') return DEFAULT_EXPORT_RETENTION_DAYS
+  const days = Number(configured)
+  if (Number.isFinite(days) && days > 0) return days
+  if (!retentionWarnings.has(configured)) {
+    retentionWarnings.add(configured)
+    console.warn(`[exports] THERMOTOME_EXPORT_RETENTION_DAYS=${JSON.stringify(configured)} is not a positive number of days; keeping the files of finished exports for ${DEFAULT_EXPORT_RETENTION_DAYS} days.`)
+  }
+  return DEFAULT_EXPORT_RETENTION_DAYS
+}
+
+/** "1 day", "7 days", "0.5 days". */
+export const retentionDaysText = (days: number) => `${days} ${days === 1 ? 'day' : 'days'}`
+
+let expiringHere = false
+
+/**
+ * Removes the stored files of exports that finished more than the retention period ago and sets
+ * their storageKey to null; the job row stays (the view then says the files were removed).
+ * Each job is taken by one conditional UPDATE (still done, files still stored, finished before
+ * the cutoff) in a transaction that also removes the files and records 'export_expired': a
+ * second app server's UPDATE of the same row waits for that transaction and then matches
+ * nothing; if removing the files fails, the change rolls back and the next sweep tries again.
+ * Returns the ids of the jobs whose files were removed. The options are for tests.
+ */
+export async function expireExportFiles(options: { database?: Database, storage?: ExportFileStore, retentionDays?: number, now?: Date } = {}): Promise<string[]> {
+  if (expiringHere) return []
+  expiringHere = true
+  try {
+    const database = options.database ?? useDatabase()
+    const storage = options.storage ?? exportStorage()
+    const retentionDays = options.retentionDays ?? exportRetentionDays()
+    const cutoff = new Date((options.now ?? new Date()).getTime() - retentionDays * DAY_MS)
+    const expired = and(eq(exportJobs.status, 'done'), isNotNull(exportJobs.storageKey), lt(exportJobs.finishedAt, cutoff))
+    const due = await database.select({ id: exportJobs.id }).from(exportJobs).where(expired).orderBy(exportJobs.finishedAt, exportJobs.id)
+    const removed: string[] = []
+    for (const { id } of due) {
+      try {
+        const done = await database.transaction(async (tx) => {
+          const [job] = await tx.update(exportJobs).set({ storageKey: null }).where(and(eq(exportJobs.id, id), expired)).returning()
+          if (!job) return false
+          await removeExportFiles(id, storage)
+          await recordAudit(database, {
+            action: 'export_expired', actorId: null, actorEmail: null, subjectType: 'export', subjectId: id,
+            details: { records: job.total, finishedAt: job.finishedAt?.toISOString() ?? null, retentionDays },
+          }, tx)
+          return true
+        })
+        if (done) removed.push(id)
+      }
+      catch (error) {
+        console.error(`[exports] could not remove the files of export ${id}:`, error instanceof Error ? error.message : error)
+      }
+    }
+    return removed
+  }
+  finally {
+    expiringHere = false
+  }
 }
 
 /** Picks up queued jobs and running jobs whose server stopped (stale heartbeat). */
@@ -216,6 +290,8 @@ export function exportJobView(job: ExportJob) {
   return {
     id: job.id, status: job.status, total: job.total, done: job.done, error: job.error,
     createdAt: job.createdAt.toISOString(), startedAt: job.startedAt?.toISOString() ?? null, finishedAt: job.finishedAt?.toISOString() ?? null,
-    downloadable: job.status === 'done',
+    downloadable: job.status === 'done' && job.storageKey !== null,
+    /** Finished, but its files were removed after the retention period (expireExportFiles). */
+    filesRemoved: job.status === 'done' && job.storageKey === null,
   }
 }
