@@ -115,10 +115,9 @@ export function boltzmannKernel(
   log10Fractions: Float64Array | null,
 ): { sum: number; meanReduced: number; varianceReduced: number; mostPopulatedIndex: number; underflowCount: number } {
   exponentials(energies, beta, lowest, fractions)
-  const moments =
-    degeneracies === null
-      ? log10Fractions === null ? momentsPlain(energies, beta, lowest, fractions) : momentsPlainLog(energies, beta, lowest, fractions, log10Fractions)
-      : log10Fractions === null ? momentsDegenerate(energies, beta, degeneracies, lowest, fractions) : momentsDegenerateLog(energies, beta, degeneracies, lowest, fractions, log10Fractions)
+  const moments = degeneracies === null
+    ? momentsPlain(energies, beta, lowest, fractions, log10Fractions)
+    : momentsDegenerate(energies, beta, degeneracies, lowest, fractions, log10Fractions)
   const sum = moments.sum
   const inverseSum = 1 / sum
   const underflowCount = log10Fractions === null ? normalise(fractions, inverseSum) : normaliseWithLog(fractions, inverseSum, log10Fractions, Math.log10(sum))
@@ -137,27 +136,8 @@ function exponentials(energies: ArrayLike<number>, beta: number, lowest: number,
   for (let index = 0; index < count; index++) out[index] = Math.exp(-(beta * energies[index]! - lowest))
 }
 
-function momentsPlain(energies: ArrayLike<number>, beta: number, lowest: number, weights: Float64Array): KernelMoments {
-  let sum = 0
-  let firstMoment = 0
-  let secondMoment = 0
-  let largest = -1
-  let mostPopulatedIndex = 0
-  for (let index = 0; index < energies.length; index++) {
-    const x = beta * energies[index]! - lowest
-    const weight = weights[index]!
-    if (weight > largest) {
-      largest = weight
-      mostPopulatedIndex = index
-    }
-    sum += weight
-    firstMoment += weight * x
-    secondMoment += weight * x * x
-  }
-  return { sum, firstMoment, secondMoment, mostPopulatedIndex }
-}
-
-function momentsPlainLog(energies: ArrayLike<number>, beta: number, lowest: number, weights: Float64Array, logs: Float64Array): KernelMoments {
+/** Pass 2 without degeneracies (every g_i = 1, so log10 g_i = 0). */
+function momentsPlain(energies: ArrayLike<number>, beta: number, lowest: number, weights: Float64Array, logs: Float64Array | null): KernelMoments {
   const inverseLn10 = 1 / LN10
   let sum = 0
   let firstMoment = 0
@@ -167,7 +147,7 @@ function momentsPlainLog(energies: ArrayLike<number>, beta: number, lowest: numb
   for (let index = 0; index < energies.length; index++) {
     const x = beta * energies[index]! - lowest
     const weight = weights[index]!
-    logs[index] = -x * inverseLn10
+    if (logs !== null) logs[index] = -x * inverseLn10
     if (weight > largest) {
       largest = weight
       mostPopulatedIndex = index
@@ -179,29 +159,8 @@ function momentsPlainLog(energies: ArrayLike<number>, beta: number, lowest: numb
   return { sum, firstMoment, secondMoment, mostPopulatedIndex }
 }
 
-function momentsDegenerate(energies: ArrayLike<number>, beta: number, degeneracies: ArrayLike<number>, lowest: number, weights: Float64Array): KernelMoments {
-  let sum = 0
-  let firstMoment = 0
-  let secondMoment = 0
-  let largest = -1
-  let mostPopulatedIndex = 0
-  for (let index = 0; index < energies.length; index++) {
-    const x = beta * energies[index]! - lowest
-    const weight = degeneracies[index]! * weights[index]!
-    weights[index] = weight
-    if (weight > largest) {
-      largest = weight
-      mostPopulatedIndex = index
-    }
-    sum += weight
-    firstMoment += weight * x
-    secondMoment += weight * x * x
-  }
-  return { sum, firstMoment, secondMoment, mostPopulatedIndex }
-}
-
-function momentsDegenerateLog(energies: ArrayLike<number>, beta: number, degeneracies: ArrayLike<number>, lowest: number, weights: Float64Array, logs: Float64Array): KernelMoments {
-  // Degeneracies are whole numbers, mostly small: their log10 comes from a table.
+/** Pass 2 with degeneracies: whole numbers, mostly small, so their log10 comes from a table. */
+function momentsDegenerate(energies: ArrayLike<number>, beta: number, degeneracies: ArrayLike<number>, lowest: number, weights: Float64Array, logs: Float64Array | null): KernelMoments {
   const table = smallLog10Table()
   const inverseLn10 = 1 / LN10
   let sum = 0
@@ -214,8 +173,10 @@ function momentsDegenerateLog(energies: ArrayLike<number>, beta: number, degener
     const degeneracy = degeneracies[index]!
     const weight = degeneracy * weights[index]!
     weights[index] = weight
-    const small = degeneracy | 0
-    logs[index] = (small === degeneracy && small > 0 && small < 4096 ? table[small]! : Math.log10(degeneracy)) - x * inverseLn10
+    if (logs !== null) {
+      const small = degeneracy | 0
+      logs[index] = (small === degeneracy && small > 0 && small < 4096 ? table[small]! : Math.log10(degeneracy)) - x * inverseLn10
+    }
     if (weight > largest) {
       largest = weight
       mostPopulatedIndex = index
