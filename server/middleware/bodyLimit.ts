@@ -58,7 +58,8 @@ export default defineEventHandler(async (event) => {
   const body = await readRequestCapped(event, limit)
   if (!body)
     tooLarge(limit)
-  event._requestBody = body
+  // h3 reads a Buffer here as the raw body; Buffer.concat gives one backed by a plain ArrayBuffer.
+  event._requestBody = body as Buffer<ArrayBuffer>
   // JSON bodies: refuse nesting and text that would overflow a stack or that PostgreSQL
   // cannot store, as a 400 naming the field, before any route sees them.
   if (/json/i.test(getRequestHeader(event, 'content-type') ?? '') && body.length > 0) {

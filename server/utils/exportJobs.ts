@@ -164,6 +164,8 @@ export async function runExportJob(jobId: string): Promise<void> {
     console.error(`[exports] job ${jobId} failed:`, message)
     await database.update(exportJobs).set({ status: 'failed', error: message.slice(0, 1000), finishedAt: new Date() })
       .where(and(eq(exportJobs.id, jobId), eq(exportJobs.status, 'running'))).catch(() => {})
+    // A failed job is never resumed: the files it rendered so far would only fill the data folder.
+    await removeExportFiles(jobId).catch(removal => console.error(`[exports] could not remove the files of failed job ${jobId}:`, removal instanceof Error ? removal.message : removal))
   }
   finally {
     if (beat) clearInterval(beat)

@@ -1,6 +1,6 @@
 import { execFileSync, spawnSync } from 'node:child_process'
 import { createHash } from 'node:crypto'
-import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs'
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
@@ -353,6 +353,34 @@ describe('bulk export', () => {
     const job = await waitForJob(felix, jobId, 100_000)
     expect(job.status, job.error).toBe('done')
     expect(job.done).toBe(2)
+  })
+
+  it('removes the files a job rendered before it failed', { timeout: 120_000 }, async () => {
+    // A resumed job whose second record has gone: the first record's files, already stored, go too.
+    const exportsFolder = join(root, 'test-artifacts', 'data', 'exports')
+    const client = new pg.Client({ connectionString: inject('databaseURL') })
+    await client.connect()
+    let jobId: string
+    try {
+      const { rows: [felixRow] } = await client.query("SELECT id FROM people WHERE email LIKE 'felix%'")
+      const gone = { entryId: '00000000-0000-4000-8000-00000000dead', version: 1 }
+      const parameters = { request: { records: [{ entryId: record.entryId, version: 1 }, gone] }, records: [{ entryId: record.entryId, version: 1 }, gone] }
+      const { rows: [row] } = await client.query(
+        `INSERT INTO export_jobs (requested_by, parameters, status, total, done, started_at, heartbeat_at)
+         VALUES ($1, $2, 'running', 2, 0, now() - interval '10 minutes', now() - interval '10 minutes') RETURNING id`,
+        [felixRow.id, JSON.stringify(parameters)],
+      )
+      jobId = row.id
+    }
+    finally { await client.end() }
+    const job = await waitForJob(felix, jobId, 100_000)
+    expect(job.status).toBe('failed')
+    expect(job.error).toMatch(/no longer available/)
+    expect(job.downloadable).toBe(false)
+    // The fs storage keeps a job's files under a folder named after it (empty folders may stay).
+    const folder = join(exportsFolder, jobId)
+    const left = existsSync(folder) ? readdirSync(folder, { recursive: true, withFileTypes: true }).filter(item => item.isFile()).map(item => item.name) : []
+    expect(left).toEqual([])
   })
 
   it('refuses a selection with a record the person may not read, and an empty or mixed request', async () => {
