@@ -2,6 +2,7 @@
 // entry's state and its audit events. Nothing here reads the clock or random numbers, so the
 // same record always gives the same document (and, with fixed metadata, the same bytes).
 import { canonicalJson, formatFingerprint, type Calculation, type RecordBundle, type VerificationReport } from '../../shared/records'
+import { auditActionWords } from '../../shared/audit/actions'
 import { formatNumber } from '../../shared/charts'
 import { pdfChartForCalculation } from './charts'
 import { svgForPdf } from './svg'
@@ -378,7 +379,7 @@ function auditBlock(events: PdfAuditEvent[]): Content {
       body: [
         ['#', 'Time (UTC)', 'Action', 'By', 'Details'].map(text => ({ text, style: 'tableHeader' })),
         ...events.map(event => [
-          String(event.sequence), utcText(event.occurredAt).replace(' UTC', ''), para(event.action), para(event.actorEmail ?? 'system'), para(detailsText(event.details)),
+          String(event.sequence), utcText(event.occurredAt).replace(' UTC', ''), { stack: [para(auditActionWords(event.action)), para(event.action, { fontSize: 6.5, color: INK_SOFT })] }, para(event.actorEmail ?? 'system'), para(detailsText(event.details)),
         ]),
       ],
     },
