@@ -72,8 +72,7 @@ describe('records officer in the browser', () => {
     await page.screenshot({ path: `${ARTIFACTS}/verify-failed.png`, fullPage: true })
 
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Audit trail' }).click()
-    await page.getByLabel('Action').fill('export_requested')
-    await page.getByLabel('Action').press('Enter')
+    await page.getByLabel('Action').selectOption('export_requested')
     await page.locator('table tbody tr', { hasText: 'export_requested' }).first().waitFor()
     await page.getByRole('button', { name: 'Check the whole chain' }).click()
     await page.getByText(/Chain intact/).waitFor()
