@@ -1,6 +1,7 @@
 // Renders a record PDF with pdfmake 0.3 (Promise API). Fonts come from the caller (Nitro
 // server assets in the app, node_modules in tests and benchmarks); pdfmake never fetches a URL
 // or reads a local file: both access policies deny everything.
+import { createRequire } from 'node:module'
 import pdfmake from 'pdfmake'
 import pdfmakeDocumentModule from 'pdfmake/js/PDFDocument.js'
 import { canonicalJson } from '../../shared/records'
@@ -46,6 +47,7 @@ export function setupPdfFonts(files: PdfFontFiles): void {
     bytes.set(name, buffer)
     pdfmake.virtualfs.writeFileSync(name, buffer)
   }
+  parseEachFontOnce(new Set(bytes.values()))
   pdfmake.setFonts(PDF_FONT_FAMILIES)
   pdfmake.setUrlAccessPolicy(() => false)
   pdfmake.setLocalAccessPolicy(() => false)
@@ -62,6 +64,41 @@ export function setupPdfFonts(files: PdfFontFiles): void {
 }
 
 export const pdfFontsReady = () => fontBytes !== null
+
+/**
+ * pdfkit parses a font's tables again for every document (fontkit.create), about a third of a
+ * record PDF's render time. Our fonts never change, so each is parsed once and the parsed font
+ * is handed to every document; each document still makes its own subset, so the bytes are the
+ * same (the unit tests render one record twice and compare). fontkit's create cannot be
+ * replaced (a fixed getter), so this works through its public registerFormat: for our buffers
+ * only, the TrueType format declines and a registered "format" answers with the parsed font.
+ * It acts on the fontkit instance pdfkit itself loads (CommonJS, resolved from pdfkit's folder).
+ */
+interface FontFormat { probe(buffer: Uint8Array): boolean }
+function parseEachFontOnce(ours: Set<Buffer>): void {
+  const fromHere = createRequire(import.meta.url)
+  const fontkit = createRequire(fromHere.resolve('pdfkit'))('fontkit') as {
+    create: (buffer: Uint8Array) => object
+    registerFormat: (format: unknown) => void
+  }
+  const parsed = new Map<Uint8Array, object>()
+  for (const buffer of ours) parsed.set(buffer, fontkit.create(buffer))
+  const trueType = parsed.values().next().value!.constructor as FontFormat
+  const probe = trueType.probe.bind(trueType)
+  trueType.probe = (buffer: Uint8Array) => !ours.has(buffer as Buffer) && probe(buffer)
+  let asked: Uint8Array | null = null
+  function ParsedFont(): object {
+    const font = parsed.get(asked!)!
+    asked = null
+    return font
+  }
+  ParsedFont.probe = (buffer: Uint8Array) => {
+    if (!ours.has(buffer as Buffer)) return false
+    asked = buffer
+    return true
+  }
+  fontkit.registerFormat(ParsedFont)
+}
 
 /**
  * The record's PDF bytes. The attached bundle is its canonical JSON, so the bytes inside the
