@@ -83,8 +83,9 @@ export function levelTableToRows(value: unknown): LevelRow[] {
   const unit = typeof value.energyUnit === 'string' ? value.energyUnit.trim() : ''
   const degeneracies = isList(value.degeneracies) ? value.degeneracies : null
   const labels = isList(value.labels) ? value.labels : null
-  return Array.from({ length: value.energies.length }, (_, index) => {
-    const row: LevelRow = { energy: `${String(value.energies[index])} ${unit}`.trim() }
+  const energies = value.energies
+  return Array.from({ length: energies.length }, (_, index) => {
+    const row: LevelRow = { energy: `${String(energies[index])} ${unit}`.trim() }
     const label = labels?.[index]
     if (typeof label === 'string' && label !== '') row.label = label
     const degeneracy = degeneracies?.[index]
