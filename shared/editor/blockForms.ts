@@ -31,7 +31,14 @@ export type FieldSpec =
   | (BaseField & { type: 'list', placeholder?: string })
   /** A nested engine input edited as JSON text. */
   | (BaseField & { type: 'json' })
-  | (BaseField & { type: 'table', columns: ColumnSpec[], rowName: string, newRow: Record<string, unknown>, csvTarget?: 'levels' | 'lines' })
+  | (BaseField & {
+    type: 'table', columns: ColumnSpec[], rowName: string, newRow: Record<string, unknown>, csvTarget?: 'levels' | 'lines'
+    /**
+     * The input key of the same list in its column form (`levelTable`, see shared/editor/levelTable.ts):
+     * when the input holds that instead of the rows, the form shows a summary of it, not a row table.
+     */
+    levelTableKey?: string
+  })
 
 const temperature: FieldSpec = { key: 'temperature', label: 'Temperature', type: 'quantity', placeholder: '298.15 K', hint: "With its unit: '296 K' or '25 degC'." }
 const energyHint = "Energy with its unit: cm^-1, eV, kJ/mol, K, Hz…"
@@ -43,7 +50,7 @@ export const BLOCK_FORMS: Record<string, FieldSpec[]> = {
     temperature,
     { key: 'amount', label: 'Amount of substance', type: 'text', optional: true, placeholder: '1 mol', hint: 'Optional: gives expected particle counts per level.' },
     {
-      key: 'levels', label: 'Levels', type: 'table', rowName: 'level', csvTarget: 'levels', hint: energyHint,
+      key: 'levels', label: 'Levels', type: 'table', rowName: 'level', csvTarget: 'levels', levelTableKey: 'levelTable', hint: energyHint,
       newRow: { energy: '', degeneracy: 1 },
       columns: [
         { key: 'label', label: 'Label', type: 'text', optional: true },
@@ -133,6 +140,17 @@ export const BLOCK_FORMS: Record<string, FieldSpec[]> = {
     { key: 'lower', label: 'Lowest temperature', type: 'quantity', placeholder: '10 K' },
     { key: 'upper', label: 'Highest temperature', type: 'quantity', placeholder: '2000 K' },
   ],
+}
+
+/**
+ * Engine issues (path → message) that no field of the kind's form shows next to itself: issues
+ * about the whole input, a combination of fields, or a level table's lists
+ * (`levelTable.energies[12]`), which the block lists under its form.
+ */
+export function issuesOutsideFields(kind: string, errors: Record<string, string>): [string, string][] {
+  const fields = BLOCK_FORMS[kind] ?? []
+  return Object.entries(errors).filter(([path]) => !fields.some(field =>
+    field.type === 'table' ? path === field.key || path.startsWith(`${field.key}[`) : path === field.key))
 }
 
 /** Reads a dotted path ('oscillators.count') from an input object. */

@@ -296,6 +296,55 @@ export function mapLevels(table: ParsedTable, mapping: ColumnMapping): ImportRes
   })
 }
 
+/** A `levelTable` for a `levels` block: the column form, numbers parsed, one entry per level. */
+export interface ImportedLevelTable {
+  energyUnit: ImportEnergyUnit
+  energies: number[]
+  /** Only when a degeneracy column was chosen; an empty cell counts the level once (1). */
+  degeneracies?: number[]
+  /** Only when a label column was chosen; an empty cell gives an empty label. */
+  labels?: string[]
+}
+
+export interface LevelTableImportResult {
+  levelTable: ImportedLevelTable
+  errors: ImportRowError[]
+}
+
+/**
+ * The level-table form of `mapLevels` for long lists: energies and degeneracies as numbers in
+ * parallel columns, so that a block of 10^4 levels is not 10^4 rows of text. The same checks and
+ * messages as `mapLevels`, and a row with an error is left out of every column.
+ */
+export function mapLevelTable(table: ParsedTable, mapping: ColumnMapping): LevelTableImportResult {
+  checkUnit(mapping.energyUnit)
+  const energyIndex = resolveColumn(table, mapping.energyColumn, 'energyColumn', true)!
+  const degeneracyIndex = resolveColumn(table, mapping.degeneracyColumn, 'degeneracyColumn', false)
+  const labelIndex = resolveColumn(table, mapping.labelColumn, 'labelColumn', false)
+  const { rows, errors } = mapRows(table, (context) => {
+    const text = readEnergy(context, energyIndex, mapping.energyUnit, 'the energy')
+    const energy = text === undefined ? Number.NaN : Number(context.cell(energyIndex))
+    let degeneracy = 1
+    if (degeneracyIndex !== undefined) {
+      const cell = context.cell(degeneracyIndex)
+      if (cell !== '') {
+        const value = readNumber(cell)
+        if (value === undefined || !Number.isInteger(value) || value < 1)
+          context.error(degeneracyIndex, `the degeneracy "${cell}" is not a whole number of at least 1`)
+        else
+          degeneracy = value
+      }
+    }
+    return { energy, degeneracy, label: labelIndex === undefined ? '' : context.cell(labelIndex).slice(0, 200) }
+  })
+  const levelTable: ImportedLevelTable = { energyUnit: mapping.energyUnit, energies: rows.map(row => row.energy) }
+  if (degeneracyIndex !== undefined)
+    levelTable.degeneracies = rows.map(row => row.degeneracy)
+  if (labelIndex !== undefined)
+    levelTable.labels = rows.map(row => row.label)
+  return { levelTable, errors }
+}
+
 function readPositive(context: RowContext, index: number, what: string, required: boolean): number | undefined {
   const text = context.cell(index)
   if (text === '') {

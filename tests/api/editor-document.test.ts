@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest'
 import { evaluate } from '../../shared/thermo'
+import { LEVEL_TABLE_IMPORT_MAX } from '../../shared/editor/levelTable'
 import { as, type Client } from '../support/http'
 
 /**
@@ -94,6 +95,23 @@ describe('saving an editor document', () => {
     catch (error) { engineMessage = (error as { issues: { message: string }[] }).issues[0]!.message }
     expect(engineMessage).not.toBe('')
     expect(issue.message).toContain(engineMessage)
+  })
+
+  it('stores a levels block as a level table of the largest import size within the default 1 MB body limit, and names a bad energy by its index', async () => {
+    // Invented ladder: four-decimal energies in cm^-1, g = 2J+1, short labels (the import's typical file).
+    const energies = Array.from({ length: LEVEL_TABLE_IMPORT_MAX }, (_, index) => Number((2143.3 * Math.floor(index / 400) + 1.9313 * (index % 400) * (index % 400 + 1)).toFixed(4)))
+    const levelTable = { energyUnit: 'cm^-1', energies, degeneracies: energies.map((_, index) => 2 * (index % 400) + 1), labels: energies.map((_, index) => `v=${Math.floor(index / 400)} J=${index % 400}`) }
+    const content = doc(paragraph('Imported ladder.'), block({ input: { levelTable, temperature: '296 K', amount: '1 mol' } }))
+    const body = JSON.stringify({ lockVersion: await lockVersion(), content })
+    expect(Buffer.byteLength(body)).toBeLessThan(1024 * 1024)
+    const reply = await amara.patch(`/api/entries/${entryId}`, body)
+    expect(reply.status).toBe(200)
+    const stored = (await amara.get(`/api/entries/${entryId}`)).body.entry.content
+    expect(stored.content[1].attrs.input.levelTable).toEqual(levelTable)
+
+    const bad = await save(doc(block({ input: { levelTable: { ...levelTable, energies: energies.map((energy, index) => (index === 12 ? 'abc' : energy)) }, temperature: '296 K' } })))
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues[0]).toMatchObject({ blockId: BLOCK_ID, field: 'input.levelTable.energies[12]' })
   })
 
   it('refuses a temperature without its unit in a block', async () => {

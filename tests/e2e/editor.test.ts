@@ -250,6 +250,139 @@ describe('the entry editor in the browser', () => {
     await context.close()
   })
 
+  it('imports a data file of 3,000 levels into a levels block as a level table: summary, results, saved and shown again', async () => {
+    const client = await as('amara')
+    const notebooks = (await client.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
+    const infrared = notebooks.find(n => n.name.startsWith('Infrared'))!
+    const entry = (await client.post(`/api/notebooks/${infrared.id}/entries`, { title: 'A long level list from a file' })).body.entry
+    const { context, page } = await signedInPage('amara')
+    const errors: string[] = []
+    page.on('pageerror', error => errors.push(error.message))
+    await page.goto(`${baseURL()}/entries/${entry.id}`)
+    await page.locator('.ProseMirror').waitFor()
+
+    // An invented ladder (not a molecule's data): 7.5 cm^-1 apart, g cycling 1, 2, 3.
+    const count = 3000
+    const energies = Array.from({ length: count }, (_, index) => index * 7.5)
+    const degeneracies = energies.map((_, index) => 1 + (index % 3))
+    const csv = ['level,energy (cm-1),g', ...energies.map((energy, index) => `L${index + 1},${energy},${degeneracies[index]}`)].join('\n')
+    await page.locator('#attachment-upload').setInputFiles({ name: 'ladder.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
+    await page.getByRole('complementary', { name: 'Record' }).getByText('ladder.csv').first().waitFor({ timeout: 15_000 })
+
+    await page.locator('.ProseMirror').click()
+    await page.keyboard.type('/')
+    await page.keyboard.type('populations')
+    await page.keyboard.press('Enter')
+    const block = page.locator('.ProseMirror [data-kind="levels"]')
+    await block.waitFor()
+    await block.getByLabel('Temperature', { exact: true }).fill('500 K')
+    await block.getByRole('button', { name: 'Import from CSV…' }).click()
+    const dialog = page.getByRole('dialog', { name: /Import a table of levels/ })
+    await dialog.waitFor()
+    const option = await dialog.locator('#import-attachment option', { hasText: 'ladder.csv' }).getAttribute('value')
+    await dialog.getByLabel('Data file').selectOption(option!)
+    const importButton = dialog.getByRole('button', { name: 'Import 3,000 levels as a level table' })
+    await expect.poll(() => importButton.isEnabled(), { timeout: 15_000 }).toBe(true)
+    expect(await dialog.getByTestId('level-table-notice').innerText()).toMatch(/This file has 3,000 rows, more than the 500 .* imported as a level table/)
+    await page.screenshot({ path: `${ARTIFACTS}/editor-level-table-import.png`, fullPage: true })
+    await importButton.click()
+    await dialog.waitFor({ state: 'detached' })
+
+    // The block shows a summary, not 3,000 rows of fields; the focus is on its import button.
+    const summary = block.getByRole('group', { name: 'Levels' })
+    const shown = (term: string) => summary.locator('.calc-values > div').filter({ has: page.locator(`dt:text-is("${term}")`) }).locator('dd')
+    await summary.waitFor()
+    expect(await block.getByLabel(/^Energy, level/).count()).toBe(0)
+    expect(await shown('Levels').innerText()).toBe('3,000')
+    expect(await shown('Energy unit').innerText()).toBe('cm^-1')
+    expect(await shown('Lowest energy').innerText()).toMatch(/^0\s*cm\^-1$/)
+    expect(await shown('Highest energy').innerText()).toMatch(/^22492\.5\s*cm\^-1$/)
+    expect(await shown('Degeneracies').innerText()).toBe('given')
+    expect(await shown('Labels').innerText()).toBe('given')
+    expect(await summary.getByRole('button', { name: 'Edit as rows' }).count()).toBe(0)
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('data-control'))).toBe('level-table-import')
+    // Import again, by keyboard: the same dialog opens; Escape closes it and the focus comes back.
+    await page.keyboard.press('Enter')
+    await dialog.waitFor()
+    await page.keyboard.press('Escape')
+    await dialog.waitFor({ state: 'detached' })
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('data-control'))).toBe('level-table-import')
+
+    // The results are the engine's for the same level table.
+    const input = { levelTable: { energyUnit: 'cm^-1', energies, degeneracies, labels: energies.map((_, index) => `L${index + 1}`) }, temperature: '500 K', amount: '1 mol' }
+    const expected = evaluate({ kind: 'levels', input }).result
+    const resultValue = (label: string) => block.locator('.calc-results .calc-values > div').filter({ hasText: label }).locator('dd span').first()
+    const entropyMatches = async (where: typeof block) => {
+      const text = await where.locator('.calc-results .calc-values > div').filter({ hasText: 'Molar entropy S' }).locator('dd span').first().innerText()
+      return Math.abs(screenNumber(text) - expected.molarEntropy) <= 1e-5 * Math.abs(expected.molarEntropy)
+    }
+    await expect.poll(() => entropyMatches(block), { timeout: 10_000 }).toBe(true)
+    expect(Math.abs(screenNumber(await resultValue('Partition function q').innerText()) - expected.partitionFunctionFromLowest)).toBeLessThanOrEqual(1e-5 * expected.partitionFunctionFromLowest)
+    expect(await block.locator('table caption').filter({ hasText: 'Populations by level' }).innerText()).toContain('the first 500 of 3,000 levels')
+    await waitSaved(page)
+    await page.screenshot({ path: `${ARTIFACTS}/editor-level-table.png`, fullPage: true })
+    const axe = await axeViolations(page)
+    expect(axe, JSON.stringify(axe, null, 1)).toEqual([])
+
+    // Stored as a level table (numbers, not rows of text), shown again after a reload.
+    const stored = (await client.get(`/api/entries/${entry.id}`)).body.entry.content.content.find((node: { type: string }) => node.type === 'calculationBlock').attrs.input
+    expect(stored.levels).toBeUndefined()
+    expect(stored.levelTable.energies).toEqual(energies)
+    expect(stored.levelTable.degeneracies).toEqual(degeneracies)
+    await page.reload()
+    const reloaded = page.locator('.ProseMirror [data-kind="levels"]')
+    await reloaded.getByRole('group', { name: 'Levels' }).waitFor()
+    expect(await reloaded.getByRole('group', { name: 'Levels' }).locator('.calc-values > div').filter({ has: page.locator('dt:text-is("Levels")') }).locator('dd').innerText()).toBe('3,000')
+    await expect.poll(() => entropyMatches(reloaded), { timeout: 10_000 }).toBe(true)
+
+    // The read-only view shows the same summary, without the actions, and the same results.
+    const { context: witnessContext, page: witnessPage } = await signedInPage('priya')
+    await witnessPage.goto(page.url())
+    const readOnly = witnessPage.locator('[data-kind="levels"]')
+    await readOnly.getByRole('group', { name: 'Levels' }).waitFor()
+    expect(await readOnly.getByRole('group', { name: 'Levels' }).getByRole('button').count()).toBe(0)
+    expect(await entropyMatches(readOnly)).toBe(true)
+    await witnessContext.close()
+
+    expect(errors).toEqual([])
+    await context.close()
+  })
+
+  it('a short level table turns into editable rows, and the engine gives the same numbers', async () => {
+    const client = await as('amara')
+    const notebooks = (await client.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
+    const infrared = notebooks.find(n => n.name.startsWith('Infrared'))!
+    const entry = (await client.post(`/api/notebooks/${infrared.id}/entries`, { title: 'A short level table' })).body.entry
+    const levelTable = { energyUnit: 'eV', energies: [0, 0.05, 0.125], degeneracies: [1, 3, 5], labels: ['X', '', 'B'] }
+    const blockAttrs = { blockId: '00000000-0000-4000-8000-00000000a11e', kind: 'levels', title: 'Three levels', input: { levelTable, temperature: '800 K' }, collapsed: false }
+    const saved = await client.patch(`/api/entries/${entry.id}`, { lockVersion: entry.lockVersion, content: { type: 'doc', content: [{ type: 'calculationBlock', attrs: blockAttrs }] } })
+    expect(saved.status).toBe(200)
+    const expected = evaluate({ kind: 'levels', input: blockAttrs.input }).result
+
+    const { context, page } = await signedInPage('amara')
+    await page.goto(`${baseURL()}/entries/${entry.id}`)
+    const block = page.locator('.ProseMirror [data-kind="levels"]')
+    const summary = block.getByRole('group', { name: 'Levels' })
+    await summary.waitFor()
+    await summary.getByRole('button', { name: 'Edit as rows' }).click()
+    await block.getByLabel('Energy, level 3').waitFor()
+    await expect.poll(() => page.evaluate(() => document.activeElement?.id)).toMatch(/-levels-0-label$/)
+    expect(await block.getByLabel('Energy, level 2').inputValue()).toBe('0.05 eV')
+    expect(await block.getByLabel('Label, level 1').inputValue()).toBe('X')
+    expect(await block.getByLabel('Label, level 2').inputValue()).toBe('')
+    expect(await block.getByLabel('Degeneracy g, level 3').inputValue()).toBe('5')
+    const fractionCells = block.locator('table:has(caption:text("Populations by level")) tbody tr td:nth-child(4)')
+    await expect.poll(async () => {
+      const shown = (await fractionCells.allInnerTexts()).map(screenNumber)
+      return shown.length === 3 && shown.every((value, index) => Math.abs(value - expected.levelTable.fractions[index]) <= 1e-5 * expected.levelTable.fractions[index])
+    }).toBe(true)
+    await waitSaved(page)
+    const stored = (await client.get(`/api/entries/${entry.id}`)).body.entry.content.content[0].attrs.input
+    expect(stored.levelTable).toBeUndefined()
+    expect(stored.levels).toEqual([{ label: 'X', energy: '0 eV', degeneracy: 1 }, { energy: '0.05 eV', degeneracy: 3 }, { label: 'B', energy: '0.125 eV', degeneracy: 5 }])
+    await context.close()
+  })
+
   it('two people editing one entry: the later save gets the conflict message and keeps its text until Reload', async () => {
     const client = await as('amara')
     const notebooks = (await client.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]

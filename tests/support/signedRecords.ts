@@ -113,7 +113,9 @@ export async function signedBundle(options: SignedBundleOptions): Promise<Signed
     attachments: options.attachments ?? [],
     calculations: blocks.map((block) => {
       const evaluated = evaluate({ kind: block.kind, input: block.input })
-      return { blockId: block.blockId, kind: block.kind, input: block.input as never, result: evaluated.result, engineVersion: evaluated.engineVersion, warnings: evaluated.warnings }
+      // In its JSON form, as calculationsFromContent records it: a level table's result columns are typed arrays.
+      const result = JSON.parse(JSON.stringify(evaluated.result))
+      return { blockId: block.blockId, kind: block.kind, input: block.input as never, result, engineVersion: evaluated.engineVersion, warnings: evaluated.warnings }
     }),
   })
   const { recordHash } = await buildBundle({ record, signatures: [], publicKeys: [] })

@@ -55,6 +55,17 @@ describe('editorDocumentIssues', () => {
     expect(issue!.message).toContain(engineMessage)
   })
 
+  it('accepts a levels block in its level-table form, as a JSON round trip gives it, and names a bad entry by its index', () => {
+    const energies = Array.from({ length: 3000 }, (_, index) => index * 10)
+    const levelTable = { energyUnit: 'cm^-1', energies, degeneracies: energies.map((_, index) => 1 + (index % 3)), labels: energies.map((_, index) => `level ${index + 1}`) }
+    const table = block({ title: 'Imported ladder', input: { levelTable, temperature: '300 K', amount: '1 mol' } })
+    expect(editorDocumentIssues(JSON.parse(JSON.stringify(doc(table))))).toEqual([])
+    const bad = block({ title: 'Imported ladder', input: { levelTable: { ...levelTable, energies: energies.map((energy, index) => (index === 12 ? 'abc' : energy)) }, temperature: '300 K' } })
+    const [issue] = editorDocumentIssues(doc(bad))
+    expect(issue).toMatchObject({ path: 'content[0].attrs.input.levelTable.energies[12]', field: 'input.levelTable.energies[12]', blockTitle: 'Imported ladder' })
+    expect(issue!.message).toContain("'abc'")
+  })
+
   it('refuses duplicate block ids, unknown kinds and attributes, and content inside a block', () => {
     const one = block()
     expect(editorDocumentIssues(doc(one, { ...one, attrs: { ...one.attrs, title: 'again' } }))[0]).toMatchObject({ field: 'blockId', blockTitle: 'again' })

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { evaluate } from '#shared/thermo'
-import { guessMapping, ImportMappingError, isNumericCell, looksLikeHeader, mapLevels, mapLines, parseTable } from '#shared/import/csv'
+import { guessMapping, ImportMappingError, isNumericCell, looksLikeHeader, mapLevels, mapLevelTable, mapLines, parseTable } from '#shared/import/csv'
 
 describe('parseTable: delimiters', () => {
   it('reads a comma-separated table with a header', () => {
@@ -148,6 +148,52 @@ describe('mapLevels', () => {
       { label: 'second', energy: '2.5e3 cm^-1' },
     ] } })
     expect(imported.result).toEqual(typed.result)
+  })
+})
+
+describe('mapLevelTable', () => {
+  const table = parseTable('label,energy,g\nground,0,1\nfirst,1234.5,3\nsecond,+2.5e3,\n')
+
+  it('parses energies and degeneracies into parallel number lists, with labels when a label column is chosen', () => {
+    const result = mapLevelTable(table, { energyColumn: 'energy', energyUnit: 'cm^-1', degeneracyColumn: 'g', labelColumn: 'label' })
+    expect(result.errors).toEqual([])
+    // An empty degeneracy cell counts the level once, as a row without a degeneracy does.
+    expect(result.levelTable).toEqual({ energyUnit: 'cm^-1', energies: [0, 1234.5, 2500], degeneracies: [1, 3, 1], labels: ['ground', 'first', 'second'] })
+  })
+
+  it('leaves out degeneracies and labels when no column is chosen for them', () => {
+    const result = mapLevelTable(table, { energyColumn: 1, energyUnit: 'eV' })
+    expect(result.levelTable).toEqual({ energyUnit: 'eV', energies: [0, 1234.5, 2500] })
+    expect(Object.keys(result.levelTable)).toEqual(['energyUnit', 'energies'])
+  })
+
+  it('names the row (as in the file) and the column of each bad cell, and leaves those rows out of every list', () => {
+    const bad = parseTable('label,energy,g\r\nX,0,1\r\n\r\nA,abc,2\r\nB,100,1.5\r\nC,,1\r\nD,250,0\r\nE,300,2\r\n')
+    const result = mapLevelTable(bad, { energyColumn: 'energy', energyUnit: 'cm^-1', degeneracyColumn: 'g', labelColumn: 'label' })
+    // The same words as mapLevels, so the dialog lists both alike.
+    expect(result.errors).toEqual([
+      { row: 4, column: 'energy', message: 'the energy "abc" is not a number' },
+      { row: 5, column: 'g', message: 'the degeneracy "1.5" is not a whole number of at least 1' },
+      { row: 6, column: 'energy', message: 'the energy is empty' },
+      { row: 7, column: 'g', message: 'the degeneracy "0" is not a whole number of at least 1' },
+    ])
+    expect(result.levelTable).toEqual({ energyUnit: 'cm^-1', energies: [0, 300], degeneracies: [1, 2], labels: ['X', 'E'] })
+    expect(mapLevels(bad, { energyColumn: 'energy', energyUnit: 'cm^-1', degeneracyColumn: 'g', labelColumn: 'label' }).errors).toEqual(result.errors)
+  })
+
+  it('refuses a mapping to a column that does not exist or an unknown unit', () => {
+    expect(() => mapLevelTable(table, { energyColumn: 'wavenumber', energyUnit: 'cm^-1' })).toThrow(ImportMappingError)
+    expect(() => mapLevelTable(table, { energyColumn: 1, energyUnit: 'cm^-1', labelColumn: 9 })).toThrow(/labelColumn/)
+    expect(() => mapLevelTable(table, { energyColumn: 1, energyUnit: 'furlongs' as 'K' })).toThrow(/energyUnit/)
+  })
+
+  it('gives a level table the engine reads to the same populations as the imported rows (levels kind)', () => {
+    const mapping = { energyColumn: 'energy', energyUnit: 'cm^-1', degeneracyColumn: 'g', labelColumn: 'label' } as const
+    const rows = evaluate({ kind: 'levels', input: { temperature: '1500 K', levels: mapLevels(table, mapping).rows } }).result
+    const columns = evaluate({ kind: 'levels', input: { temperature: '1500 K', levelTable: mapLevelTable(table, mapping).levelTable } }).result
+    rows.levels.forEach((level: { fraction: number }, index: number) => expect(columns.levelTable.fractions[index]).toBeCloseTo(level.fraction, 14))
+    expect(columns.molarEntropy).toBeCloseTo(rows.molarEntropy, 10)
+    expect(columns.mostPopulated).toEqual(rows.mostPopulated)
   })
 })
 

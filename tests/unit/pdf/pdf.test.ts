@@ -5,6 +5,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { canonicalJson, verifyBundle } from '../../../shared/records'
 import { BundleExtractionError, extractBundleFromPdf, readBundleBytes } from '../../../shared/pdf/extractBundle'
 import { renderRecordPdfBytes, setupPdfFonts } from '../../../server/pdf/render'
+import { recordDocumentDefinition } from '../../../server/pdf/document'
 import { svgForPdf } from '../../../server/pdf/svg'
 import { textRuns } from '../../../server/pdf/text'
 import { PDF_FONT_FAMILIES } from '../../../server/pdf/fonts'
@@ -93,6 +94,32 @@ describe('record PDF', () => {
     expect(attempt(broken)?.problem).toBe('unreadable')
     expect(readBundleBytes(new TextEncoder().encode('{"a":1}'), inflate)).toEqual({ source: 'json', bundle: { a: 1 } })
   })
+})
+
+describe('record PDF of a levels block in its level-table form', () => {
+  it('prints the inputs and results in short, draws the chart, and carries every level in the bundle', async () => {
+    setupPdfFonts(pdfFontFilesFromNodeModules())
+    const energies = Array.from({ length: 3000 }, (_, index) => index * 10)
+    const levelTable = { energyUnit: 'cm^-1', energies, degeneracies: energies.map((_, index) => 1 + (index % 3)), labels: energies.map((_, index) => `level ${index + 1}`) }
+    const made = await signedBundle({
+      entryId: '5a1e2b3c-4d5e-4f60-8a7b-9c0d1e2f3a4b', notebook: { id: 'n1', name: 'Infrared line surveys — cell B' }, title: 'Imported ladder',
+      author: { id: 'a1', name: 'Dr Amara Lindqvist', email: 'amara@example.test' }, authorKey: await fixtureKey(),
+      blocks: [{ kind: 'levels', title: 'Imported ladder at 300 K', input: { levelTable, temperature: '300 K', amount: '1 mol' } }],
+    })
+    // As stored and exported: the bundle's JSON (result columns written as plain arrays).
+    const bundle = JSON.parse(canonicalJson(made.bundle as never))
+    const verification = await verifyBundle(bundle)
+    expect(verification.ok).toBe(true)
+    const definition = JSON.stringify(recordDocumentDefinition({ bundle, state: 'awaiting_witness', auditEvents: [], verification }, canonicalJson(bundle)))
+    expect(definition).toContain('levelTable.energies')
+    expect(definition).toContain('(3000 values)')
+    expect(definition).toContain('levelTable.fractions')
+    expect(definition).toContain('"svg":"<svg')
+    const pdf = await renderRecordPdfBytes({ bundle, state: 'awaiting_witness', auditEvents: [], verification })
+    const extracted = extractBundleFromPdf(pdf, inflate) as typeof bundle
+    expect(extracted.record.calculations[0].input.levelTable.energies).toHaveLength(3000)
+    expect((await verifyBundle(extracted)).ok).toBe(true)
+  }, 60_000)
 })
 
 describe('CSV cells', () => {
