@@ -28,7 +28,7 @@ export class Client {
       payload = typeof body === 'string' || Buffer.isBuffer(body) ? body : JSON.stringify(body)
     }
     Object.assign(headers, extraHeaders)
-    const response = await fetch(`${this.baseURL}${path}`, { method, headers, body: payload, redirect: 'manual', signal: AbortSignal.timeout(timeoutMs) })
+    const response = await fetch(`${this.baseURL}${path}`, { method, headers, body: payload as string | Uint8Array<ArrayBuffer> | undefined, redirect: 'manual', signal: AbortSignal.timeout(timeoutMs) })
     for (const cookie of response.headers.getSetCookie()) {
       const pair = cookie.split(';')[0]!
       const [name] = pair.split('=')

@@ -83,7 +83,7 @@ function parseEachFontOnce(ours: Set<Buffer>): void {
   }
   const parsed = new Map<Uint8Array, object>()
   for (const buffer of ours) parsed.set(buffer, fontkit.create(buffer))
-  const trueType = parsed.values().next().value!.constructor as FontFormat
+  const trueType = parsed.values().next().value!.constructor as unknown as FontFormat
   const probe = trueType.probe.bind(trueType)
   trueType.probe = (buffer: Uint8Array) => !ours.has(buffer as Buffer) && probe(buffer)
   let asked: Uint8Array | null = null

@@ -32,7 +32,7 @@ async function download(client: Client, path: string) {
 
 async function upload(client: Client, bytes: Uint8Array, name: string, type: string) {
   const form = new FormData()
-  form.append('file', new Blob([bytes], { type }), name)
+  form.append('file', new Blob([bytes as Uint8Array<ArrayBuffer>], { type }), name)
   const response = await fetch(`${baseURL()}/api/verify`, { method: 'POST', body: form, headers: { cookie: client.cookie, 'x-forwarded-for': client.address } })
   return { status: response.status, body: await response.json() as any }
 }
@@ -269,7 +269,7 @@ function readZip(bytes: Uint8Array): Promise<Map<string, Buffer>> {
         zip.openReadStream(entry, (streamError, stream) => {
           if (streamError || !stream) return reject(streamError)
           const chunks: Buffer[] = []
-          stream.on('data', chunk => chunks.push(chunk))
+          stream.on('data', (chunk: Buffer) => chunks.push(chunk))
           stream.on('end', () => { files.set(entry.fileName, Buffer.concat(chunks)); zip.readEntry() })
         })
       })

@@ -109,7 +109,7 @@ export async function signedBundle(options: SignedBundleOptions): Promise<Signed
   const blocks = (options.blocks ?? DEFAULT_BLOCKS).map((block, index) => ({ ...block, blockId: `${entryId.slice(0, 8)}-block-${index + 1}` }))
   const content = fixtureContent(blocks)
   const record = buildRecord({
-    entry: { id: entryId, notebook: options.notebook, version, supersedes: version > 1 ? version - 1 : null, title: options.title, content },
+    entry: { id: entryId, notebook: options.notebook, version, supersedes: version > 1 ? version - 1 : null, title: options.title, content: content as never },
     attachments: options.attachments ?? [],
     calculations: blocks.map((block) => {
       const evaluated = evaluate({ kind: block.kind, input: block.input })
@@ -121,7 +121,7 @@ export async function signedBundle(options: SignedBundleOptions): Promise<Signed
   const { recordHash } = await buildBundle({ record, signatures: [], publicKeys: [] })
   const envelopes: SignedBundle['envelopes'] = []
   const authorStatement = {
-    schema: STATEMENT_SCHEMA, recordHash, signer: options.author, keyFingerprint: options.authorKey.fingerprint,
+    schema: STATEMENT_SCHEMA as typeof STATEMENT_SCHEMA, recordHash, signer: options.author, keyFingerprint: options.authorKey.fingerprint,
     meaning: 'authored' as const, statement: 'I authored this entry and its calculations are as I intended them.',
     signedAt, challenge: randomUUID(),
   }
@@ -130,7 +130,7 @@ export async function signedBundle(options: SignedBundleOptions): Promise<Signed
   envelopes.push({ envelope: authored, signer: options.author, key: options.authorKey, statementHash: authoredHash })
   if (options.witness && options.witnessKey) {
     const witnessed = await signStatement({
-      schema: STATEMENT_SCHEMA, recordHash, signer: options.witness, keyFingerprint: options.witnessKey.fingerprint,
+      schema: STATEMENT_SCHEMA as typeof STATEMENT_SCHEMA, recordHash, signer: options.witness, keyFingerprint: options.witnessKey.fingerprint,
       meaning: 'witnessed', statement: 'I have read and understood this entry.',
       signedAt: new Date(Date.parse(signedAt) + 3_600_000).toISOString(), challenge: randomUUID(), countersigns: authoredHash,
     }, options.witnessKey.pair.secretKey)
@@ -228,12 +228,12 @@ export async function createSignedRecord(databaseURL: string, options: StoredRec
     )
     let authorSignatureId: string | null = null
     for (const { envelope, signer, key, statementHash: hash } of made.envelopes) {
-      const { rows: [signature] } = await client.query(
+      const { rows: [signature] }: { rows: { id: string }[] } = await client.query(
         `INSERT INTO signatures (entry_version_id, signer_id, key_id, meaning, statement, statement_hash, signature, signed_at, countersigns_id)
          VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9) RETURNING id`,
         [version.id, signer.id, key.id, envelope.statement.meaning, JSON.stringify(envelope.statement), hash, envelope.signature, new Date(envelope.statement.signedAt), envelope.statement.meaning === 'witnessed' ? authorSignatureId : null],
       )
-      if (envelope.statement.meaning === 'authored') authorSignatureId = signature.id
+      if (envelope.statement.meaning === 'authored') authorSignatureId = signature!.id
       await appendAudit(client, {
         occurredAt: new Date(envelope.statement.signedAt), actorId: signer.id, actorEmail: signer.email,
         action: envelope.statement.meaning === 'authored' ? 'entry_signed' : 'entry_countersigned',

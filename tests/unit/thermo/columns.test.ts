@@ -5,10 +5,10 @@ import { FlagColumn, NumberColumn, evaluate } from '../../../shared/thermo/index
 
 describe('result columns', () => {
   it('write numbers as a JSON array, with NaN and ±Infinity as null like the rest of a result', () => {
-    const column = NumberColumn.from([0.25, -3, Number.NaN, Number.POSITIVE_INFINITY, 1e-320])
+    const column = NumberColumn.from([0.25, -3, Number.NaN, Number.POSITIVE_INFINITY, 1e-320]) as NumberColumn
     expect(JSON.stringify({ column })).toBe('{"column":[0.25,-3,null,null,1e-320]}')
     expect(column.allFinite()).toBe(false)
-    expect(NumberColumn.from([1, 2]).allFinite()).toBe(true)
+    expect((NumberColumn.from([1, 2]) as NumberColumn).allFinite()).toBe(true)
   })
 
   it('write flags as JSON booleans', () => {
