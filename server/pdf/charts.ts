@@ -7,13 +7,13 @@ import {
   sweepChart,
   type ChartOutput,
 } from '../../shared/charts'
+import { LEVEL_TABLE_CHART_LIMIT } from '../../shared/editor/results'
 import type { Calculation } from '../../shared/records'
 
 const BOLTZMANN_CONSTANT = 1.380649e-23 // J/K, exact (CODATA 2018 / SI 2019)
 const JOULES_PER_WAVENUMBER = 1.986445857e-23 // hc in J per cm⁻¹ (CODATA 2018, exact h and c)
 
 const size = { width: 640, height: 300 }
-const LEVEL_TABLE_CHART_LIMIT = 5000
 type AnyRecord = Record<string, any>
 const isArray = (value: unknown): value is any[] => Array.isArray(value)
 
@@ -33,7 +33,7 @@ function levelsChart(result: AnyRecord, title: string): ChartOutput | null {
   // first levels and the record holds them all.
   if (table && isArray(table.energies) && table.energies.length <= LEVEL_TABLE_CHART_LIMIT) {
     const levels = table.energies.map((energy: number, index: number) => ({
-      label: `level ${index}`,
+      label: isArray(table.labels) ? String(table.labels[index]) : `level ${index + 1}`,
       energy,
       fraction: Number(table.fractions?.[index]),
       log10Fraction: Number(table.log10Fractions?.[index]),

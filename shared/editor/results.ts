@@ -27,6 +27,8 @@ export interface PresentOptions {
 
 /** How many levels of a level table a block, the view and the PDF list. */
 export const LEVEL_TABLE_ROWS_SHOWN = 500
+/** Up to how many levels a level table gets a population chart (past that it is a solid band of ink). */
+export const LEVEL_TABLE_CHART_LIMIT = 5000
 
 /** Six significant digits for the tables: what a scientist copies into a report. */
 const number = (value: number | null | undefined, digits = 6) => (typeof value === 'number' && Number.isFinite(value) ? formatNumber(value, digits) : '—')
@@ -52,7 +54,7 @@ export function presentResult(kind: string, result: any, options: PresentOptions
       const table = result.levelTable
       const tableLength: number = table ? table.energies.length : 0
       const levels: any[] = result.levels ?? Array.from({ length: Math.min(tableLength, LEVEL_TABLE_ROWS_SHOWN) }, (_, index) => ({
-        label: null, energy: `${table.energies[index]} ${table.energyUnit}`, energyJ: Number.NaN, degeneracy: table.degeneracies?.[index] ?? 1,
+        label: table.labels?.[index] ?? null, energy: `${table.energies[index]} ${table.energyUnit}`, energyJ: Number.NaN, degeneracy: table.degeneracies?.[index] ?? 1,
         fraction: table.fractions[index], log10Fraction: table.log10Fractions[index], count: table.counts?.[index],
       }))
       const withCounts = levels.some(level => level.count !== undefined)
@@ -78,7 +80,16 @@ export function presentResult(kind: string, result: any, options: PresentOptions
               levels: levels.map((level, index) => ({ label: level.label ?? `level ${index + 1}`, energy: joulesToWavenumber(level.energyJ), fraction: level.fraction, log10Fraction: level.log10Fraction })),
               energyUnit: 'cm⁻¹', scale,
             }, chartOptions)
-          : null,
+          : table && tableLength <= LEVEL_TABLE_CHART_LIMIT
+            ? populationChart({
+                // Every level of the table, along its energy axis (as the record PDF draws it).
+                levels: Array.from({ length: tableLength }, (_, index) => ({
+                  label: table.labels?.[index] ?? `level ${index + 1}`, energy: Number(table.energies[index]),
+                  fraction: Number(table.fractions[index]), log10Fraction: Number(table.log10Fractions[index]),
+                })),
+                energyUnit: String(table.energyUnit), scale, xAxis: 'energy',
+              }, chartOptions)
+            : null,
         scalable: true,
       }
     }

@@ -153,6 +153,8 @@ export interface LevelTableResult {
   log10Fractions: NumberColumn
   counts?: NumberColumn
   belowOneParticle?: FlagColumn
+  /** The labels as given, when the table has them. */
+  labels?: string[]
 }
 
 export interface LevelsResult {
@@ -298,6 +300,8 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
       tableResult.counts = counts
       tableResult.belowOneParticle = below!
     }
+    // Text only, so the final scan for non-finite numbers can pass over it.
+    if (table!.labels) tableResult.labels = markFinite(table!.labels)
     result.levelTable = tableResult
   }
   return result

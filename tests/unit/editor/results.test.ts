@@ -56,4 +56,16 @@ describe('presentResult', () => {
     const fromJson = presentResult('levels', JSON.parse(JSON.stringify(result)))
     expect(fromJson.tables[0]!.rows).toEqual(table.rows)
   })
+
+  it('names the levels of a level table by their labels and charts a table of up to 5,000 levels', () => {
+    const input = { levelTable: { energyUnit: 'cm^-1', energies: [0, 120, 300], degeneracies: [1, 3, 5], labels: ['J = 0', 'J = 1', 'J = 2'] }, temperature: '200 K' }
+    const { result } = evaluate({ kind: 'levels', input })
+    expect(JSON.parse(JSON.stringify(result)).levelTable.labels).toEqual(['J = 0', 'J = 1', 'J = 2'])
+    const presented = presentResult('levels', result)
+    expect(presented.tables[0]!.rows.map(row => row[0])).toEqual(['J = 0', 'J = 1', 'J = 2'])
+    expect(presented.chart?.svg).toMatch(/^<svg/)
+    const big = evaluate({ kind: 'levels', input: { levelTable: { energyUnit: 'cm^-1', energies: Float64Array.from({ length: 6000 }, (_, index) => index) }, temperature: '300 K' } })
+    expect(presentResult('levels', big.result).chart).toBeNull()
+  })
 })
+
