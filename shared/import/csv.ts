@@ -268,6 +268,19 @@ function readEnergy(context: RowContext, index: number, unit: ImportEnergyUnit, 
   return `${text.replace(/^\+/, '')} ${unit}`
 }
 
+/** The degeneracy in a row's cell: undefined when there is no such column or the cell is empty (or wrong, which is reported). */
+function readDegeneracy(context: RowContext, index: number | undefined): number | undefined {
+  if (index === undefined) return undefined
+  const text = context.cell(index)
+  if (text === '') return undefined
+  const value = readNumber(text)
+  if (value === undefined || !Number.isInteger(value) || value < 1) {
+    context.error(index, `the degeneracy "${text}" is not a whole number of at least 1`)
+    return undefined
+  }
+  return value
+}
+
 /**
  * Rows for a `levels` block: { label?, energy: "<number> <unit>", degeneracy? }. The energy
  * keeps the number as written in the file (no float round trip) with the chosen unit appended.
@@ -282,16 +295,9 @@ export function mapLevels(table: ParsedTable, mapping: ColumnMapping): ImportRes
     const level: ImportedLevel = { energy: energy ?? '' }
     if (labelIndex !== undefined && context.cell(labelIndex) !== '')
       level.label = context.cell(labelIndex).slice(0, 200)
-    if (degeneracyIndex !== undefined) {
-      const text = context.cell(degeneracyIndex)
-      if (text !== '') {
-        const value = readNumber(text)
-        if (value === undefined || !Number.isInteger(value) || value < 1)
-          context.error(degeneracyIndex, `the degeneracy "${text}" is not a whole number of at least 1`)
-        else
-          level.degeneracy = value
-      }
-    }
+    const degeneracy = readDegeneracy(context, degeneracyIndex)
+    if (degeneracy !== undefined)
+      level.degeneracy = degeneracy
     return level
   })
 }
@@ -323,18 +329,8 @@ export function mapLevelTable(table: ParsedTable, mapping: ColumnMapping): Level
   const labelIndex = resolveColumn(table, mapping.labelColumn, 'labelColumn', false)
   const { rows, errors } = mapRows(table, (context) => {
     const text = readEnergy(context, energyIndex, mapping.energyUnit, 'the energy')
-    const energy = text === undefined ? Number.NaN : Number(context.cell(energyIndex))
-    let degeneracy = 1
-    if (degeneracyIndex !== undefined) {
-      const cell = context.cell(degeneracyIndex)
-      if (cell !== '') {
-        const value = readNumber(cell)
-        if (value === undefined || !Number.isInteger(value) || value < 1)
-          context.error(degeneracyIndex, `the degeneracy "${cell}" is not a whole number of at least 1`)
-        else
-          degeneracy = value
-      }
-    }
+    const energy = text === undefined ? Number.NaN : readNumber(context.cell(energyIndex)) ?? Number.NaN
+    const degeneracy = readDegeneracy(context, degeneracyIndex) ?? 1
     return { energy, degeneracy, label: labelIndex === undefined ? '' : context.cell(labelIndex).slice(0, 200) }
   })
   const levelTable: ImportedLevelTable = { energyUnit: mapping.energyUnit, energies: rows.map(row => row.energy) }

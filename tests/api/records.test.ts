@@ -259,6 +259,22 @@ async function waitForJob(client: Client, id: string, timeoutMs: number) {
   }
 }
 
+/** A bulk export of felix's whose server stopped ten minutes ago (stale heartbeat), for the resume loop to pick up. */
+async function insertStaleJob(records: { entryId: string, version: number }[], done: number): Promise<string> {
+  const client = new pg.Client({ connectionString: inject('databaseURL') })
+  await client.connect()
+  try {
+    const { rows: [felixRow] } = await client.query("SELECT id FROM people WHERE email LIKE 'felix%'")
+    const { rows: [row] } = await client.query(
+      `INSERT INTO export_jobs (requested_by, parameters, status, total, done, started_at, heartbeat_at)
+       VALUES ($1, $2, 'running', $3, $4, now() - interval '10 minutes', now() - interval '10 minutes') RETURNING id`,
+      [felixRow.id, JSON.stringify({ request: { records }, records }), records.length, done],
+    )
+    return row.id
+  }
+  finally { await client.end() }
+}
+
 /** Every entry of a zip as name → bytes (yauzl). */
 function readZip(bytes: Uint8Array): Promise<Map<string, Buffer>> {
   return new Promise((resolve, reject) => {
@@ -336,20 +352,7 @@ describe('bulk export', () => {
   })
 
   it('resumes a job whose server stopped (stale heartbeat) and finishes it', { timeout: 120_000 }, async () => {
-    const client = new pg.Client({ connectionString: inject('databaseURL') })
-    await client.connect()
-    let jobId: string
-    try {
-      const { rows: [felixRow] } = await client.query("SELECT id FROM people WHERE email LIKE 'felix%'")
-      const parameters = { request: { records: [{ entryId: record.entryId, version: 1 }, { entryId: awaiting.entryId, version: 1 }] }, records: [{ entryId: record.entryId, version: 1 }, { entryId: awaiting.entryId, version: 1 }] }
-      const { rows: [row] } = await client.query(
-        `INSERT INTO export_jobs (requested_by, parameters, status, total, done, started_at, heartbeat_at)
-         VALUES ($1, $2, 'running', 2, 1, now() - interval '10 minutes', now() - interval '10 minutes') RETURNING id`,
-        [felixRow.id, JSON.stringify(parameters)],
-      )
-      jobId = row.id
-    }
-    finally { await client.end() }
+    const jobId = await insertStaleJob([{ entryId: record.entryId, version: 1 }, { entryId: awaiting.entryId, version: 1 }], 1)
     const job = await waitForJob(felix, jobId, 100_000)
     expect(job.status, job.error).toBe('done')
     expect(job.done).toBe(2)
@@ -358,21 +361,8 @@ describe('bulk export', () => {
   it('removes the files a job rendered before it failed', { timeout: 120_000 }, async () => {
     // A resumed job whose second record has gone: the first record's files, already stored, go too.
     const exportsFolder = join(root, 'test-artifacts', 'data', 'exports')
-    const client = new pg.Client({ connectionString: inject('databaseURL') })
-    await client.connect()
-    let jobId: string
-    try {
-      const { rows: [felixRow] } = await client.query("SELECT id FROM people WHERE email LIKE 'felix%'")
-      const gone = { entryId: '00000000-0000-4000-8000-00000000dead', version: 1 }
-      const parameters = { request: { records: [{ entryId: record.entryId, version: 1 }, gone] }, records: [{ entryId: record.entryId, version: 1 }, gone] }
-      const { rows: [row] } = await client.query(
-        `INSERT INTO export_jobs (requested_by, parameters, status, total, done, started_at, heartbeat_at)
-         VALUES ($1, $2, 'running', 2, 0, now() - interval '10 minutes', now() - interval '10 minutes') RETURNING id`,
-        [felixRow.id, JSON.stringify(parameters)],
-      )
-      jobId = row.id
-    }
-    finally { await client.end() }
+    const gone = { entryId: '00000000-0000-4000-8000-00000000dead', version: 1 }
+    const jobId = await insertStaleJob([{ entryId: record.entryId, version: 1 }, gone], 0)
     const job = await waitForJob(felix, jobId, 100_000)
     expect(job.status).toBe('failed')
     expect(job.error).toMatch(/no longer available/)
