@@ -286,6 +286,17 @@ export function toGyromagneticRatio(text: unknown, path = 'gyromagneticRatio'): 
   return quantity.namesHertz ? quantity.si * 2 * Math.PI : quantity.si
 }
 
+const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' }
+
+/** A number for a warning, to `digits` significant digits, with powers of ten written out (6.022×10²³). */
+export function messageNumber(value: number, digits = 3): string {
+  const text = value.toPrecision(digits)
+  const match = /^(-?[\d.]+)e([+-]\d+)$/.exec(text)
+  if (!match) return text
+  const exponent = String(Number(match[2])).replace(/[-\d]/g, (character) => SUPERSCRIPT[character]!)
+  return `${match[1]}×10${exponent}`
+}
+
 /** Short human form of a number for messages. */
 export function formatNumber(value: number): string {
   return Number.isInteger(value) ? String(value) : value.toPrecision(6).replace(/\.?0+(e|$)/, '$1')

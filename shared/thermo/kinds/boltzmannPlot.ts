@@ -11,6 +11,7 @@ import { BOLTZMANN_CONSTANT } from '../constants'
 import { describeInput, labelField, strictObject } from '../schema'
 import { inputError } from '../errors'
 import { energyField } from './common'
+import { messageNumber } from '../units'
 
 function positive(what: string) {
   return z
@@ -108,7 +109,7 @@ export function computeBoltzmannPlot(input: BoltzmannPlotInput, warnings: string
     warnings.push('Two lines without intensity uncertainties fix the line exactly: no uncertainty can be given. Add lines or uncertainties.')
   }
   if (weighted && degreesOfFreedom > 0 && chiSquared / degreesOfFreedom > 4) {
-    warnings.push(`The scatter about the line is larger than the stated uncertainties allow (χ²/ν = ${(chiSquared / degreesOfFreedom).toPrecision(3)}); the temperature uncertainty is likely too small.`)
+    warnings.push(`The scatter about the line is larger than the stated uncertainties allow (χ²/ν = ${messageNumber(chiSquared / degreesOfFreedom, 3)}); the temperature uncertainty is likely too small.`)
   }
   let temperature: number | null = null
   let temperatureUncertainty: number | null = null

@@ -8,7 +8,7 @@ import { AVOGADRO_CONSTANT, LN10 } from '../constants'
 import { FlagColumn, NumberColumn, markFinite } from '../columns'
 import { boltzmannStatistics, finiteOrNull, molarFunctions } from '../numerics'
 import { describeInput, labelField, quantityField, strictObject, wholeNumber } from '../schema'
-import { energyFactor, toParticleCount } from '../units'
+import { energyFactor, toParticleCount, messageNumber } from '../units'
 import { energyField, temperatureField } from './common'
 
 const levelRow = strictObject({
@@ -245,11 +245,11 @@ export function computeLevels(input: LevelsInput, warnings: string[] = []): Leve
 
   if (belowCount > 0) {
     warnings.push(
-      `${belowCount} of ${count} level${count === 1 ? '' : 's'} ${belowCount === 1 ? 'holds' : 'hold'} fewer than one particle on average out of ${particleCount!.toPrecision(4)}: such counts are expectation values, not whole particles.`,
+      `${belowCount.toLocaleString('en-US')} of ${count.toLocaleString('en-US')} level${count === 1 ? '' : 's'} ${belowCount === 1 ? 'holds' : 'hold'} fewer than one particle on average out of ${messageNumber(particleCount!, 4)}: such counts are expectation values, not whole particles.`,
     )
   }
   if (underflowCount > 0) {
-    warnings.push(`${underflowCount} level${underflowCount === 1 ? ' has a population' : 's have populations'} below the smallest number a double can hold (about 1e-308): read ${underflowCount === 1 ? 'it' : 'them'} from log10Fraction.`)
+    warnings.push(`${underflowCount.toLocaleString('en-US')} level${underflowCount === 1 ? ' has a population' : 's have populations'} below the smallest number a double can hold (about 1e-308): read ${underflowCount === 1 ? 'it' : 'them'} from log10Fraction.`)
   }
   const lnQ = statistics.lnPartitionFunction
   const labelAt = (index: number): string | null => (rows ? rows[index]!.label ?? null : table!.labels?.[index] ?? null)

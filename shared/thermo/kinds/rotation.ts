@@ -10,7 +10,7 @@ import { z } from 'zod'
 import { BOLTZMANN_CONSTANT, GAS_CONSTANT } from '../constants'
 import { boltzmannStatistics, molarFunctions } from '../numerics'
 import { describeInput, strictObject, wholeNumber } from '../schema'
-import { joulesToWavenumber } from '../units'
+import { joulesToWavenumber, messageNumber } from '../units'
 import { energyField, positiveEnergyField, temperatureField } from './common'
 
 const spinWeight = z
@@ -109,13 +109,13 @@ export function computeRotation(input: RotationInput, warnings: string[] = []): 
   const highTemperature = (meanWeight * temperature) / (sigma * theta)
 
   if (!automatic && fractions[count - 1]! > 1e-9) {
-    warnings.push(`The sum stops at J = ${highestJ} (maxJ) while that level still holds a fraction of ${fractions[count - 1]!.toPrecision(3)}: the partition function is truncated; raise maxJ.`)
+    warnings.push(`The sum stops at J = ${highestJ} (maxJ) while that level still holds a fraction of ${messageNumber(fractions[count - 1]!, 3)}: the partition function is truncated; raise maxJ.`)
   }
   if (Number.isFinite(turnoverJ) && highestJ >= turnoverJ && fractions[count - 1]! > 1e-9) {
-    warnings.push(`Centrifugal distortion makes E_J fall beyond J = ${turnoverJ}; the sum stops there although that level still holds a fraction of ${fractions[count - 1]!.toPrecision(3)}.`)
+    warnings.push(`Centrifugal distortion makes E_J fall beyond J = ${turnoverJ}; the sum stops there although that level still holds a fraction of ${messageNumber(fractions[count - 1]!, 3)}.`)
   }
   if (temperature < 5 * theta) {
-    warnings.push(`T is only ${(temperature / theta).toPrecision(3)} times Θ_rot: the high-temperature forms are poor here; use the exact sum.`)
+    warnings.push(`T is only ${messageNumber(temperature / theta, 3)} times Θ_rot: the high-temperature forms are poor here; use the exact sum.`)
   }
   if (sigma > 1 && input.nuclearSpinWeights === undefined && temperature < 5 * theta) {
     warnings.push('At this temperature the symmetry number alone does not describe a homonuclear molecule: give nuclear-spin weights for even and odd J.')

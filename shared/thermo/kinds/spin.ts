@@ -7,7 +7,7 @@ import { z } from 'zod'
 import { BOLTZMANN_CONSTANT, REDUCED_PLANCK_CONSTANT } from '../constants'
 import { boltzmannStatistics } from '../numerics'
 import { describeInput, quantityField, strictObject } from '../schema'
-import { toGyromagneticRatio, toHertz, toTesla } from '../units'
+import { toGyromagneticRatio, toHertz, toTesla, messageNumber } from '../units'
 import { temperatureField } from './common'
 
 /**
@@ -116,7 +116,7 @@ export function computeSpin(input: SpinInput, warnings: string[] = []): SpinResu
   for (let index = 0; index < levelCount; index++) meanM += ms[index]! * fractions[index]!
   // For I = ½ use tanh directly: the difference of two near-equal fractions loses digits.
   const polarization = spin === 0.5 ? Math.sign(gamma) * Math.tanh(x / 2) : meanM / spin
-  if (x > 0.1) warnings.push(`ħγB/kT = ${x.toPrecision(3)}: the high-temperature (Curie-law) polarization no longer applies; the Boltzmann value is given.`)
+  if (x > 0.1) warnings.push(`ħγB/kT = ${messageNumber(x, 3)}: the high-temperature (Curie-law) polarization no longer applies; the Boltzmann value is given.`)
   return {
     temperature,
     nucleus: input.nucleus ?? null,

@@ -7,6 +7,7 @@ import { EngineInputError, inputError } from '../errors'
 import { brentRoot } from '../numerics'
 import { describeInput, issuesFromZod, strictObject, wholeNumber } from '../schema'
 import { temperatureField } from './common'
+import { messageNumber } from '../units'
 
 /** What sweep needs to know about another kind. */
 export interface SweepableKind {
@@ -194,7 +195,7 @@ export function createSweepKinds(kinds: Record<string, SweepableKind>) {
       previousF = f
     }
     if (!bracket) {
-      const range = Number.isFinite(lowest) ? `runs between ${(lowest + input.target).toPrecision(6)} and ${(highest + input.target).toPrecision(6)}` : 'is not a number'
+      const range = Number.isFinite(lowest) ? `runs between ${messageNumber(lowest + input.target, 6)} and ${messageNumber(highest + input.target, 6)}` : 'is not a number'
       inputError('target', `no temperature between ${input.lower} K and ${input.upper} K gives ${input.output} = ${input.target}: there the output ${range}. Change the target or widen lower/upper.`)
     }
     const [a, b, fa, fb] = bracket

@@ -11,7 +11,7 @@ import { z } from 'zod'
 import { AVOGADRO_CONSTANT, BOLTZMANN_CONSTANT, GAS_CONSTANT, PLANCK_CONSTANT } from '../constants'
 import { boltzmannStatistics, molarFunctions } from '../numerics'
 import { quantityField, strictObject, wholeNumber } from '../schema'
-import { toKilogramsPerMole, toPascal, joulesToWavenumber } from '../units'
+import { toKilogramsPerMole, toPascal, joulesToWavenumber, messageNumber } from '../units'
 import { energyField, positiveEnergyField, temperatureField } from './common'
 import { linearRotorStatistics } from './rotation'
 import { harmonicFunctions } from './vibration'
@@ -101,13 +101,13 @@ export function computeThermochemistry(input: ThermochemistryInput, warnings: st
       enthalpyMinusH0: molar.internalEnergy,
     }
     const ratio = constant / kT
-    if (ratio > 0.1) warnings.push(`The rotational temperature is not small against T (Θ_rot/T = ${ratio.toPrecision(3)}): the exact rigid-rotor sum is used, but nuclear-spin statistics, which the symmetry number only approximates, matter here.`)
+    if (ratio > 0.1) warnings.push(`The rotational temperature is not small against T (Θ_rot/T = ${messageNumber(ratio, 3)}): the exact rigid-rotor sum is used, but nuclear-spin statistics, which the symmetry number only approximates, matter here.`)
   } else if (input.shape === 'nonlinear') {
     const thetas = input.rotationalConstants!.map((constant) => constant.joules / BOLTZMANN_CONSTANT)
     const lnQ = 0.5 * Math.log(Math.PI) - Math.log(sigma) + 0.5 * (3 * Math.log(temperature) - Math.log(thetas[0]!) - Math.log(thetas[1]!) - Math.log(thetas[2]!))
     rotational = { partitionFunction: Math.exp(lnQ), entropy: R * (lnQ + 1.5), heatCapacityP: 1.5 * R, enthalpyMinusH0: 1.5 * RT }
     const largest = Math.max(...thetas) / temperature
-    if (largest > 0.05) warnings.push(`A rotational temperature is not small against T (Θ_rot/T up to ${largest.toPrecision(3)}): the classical rotational partition function is used and loses accuracy here.`)
+    if (largest > 0.05) warnings.push(`A rotational temperature is not small against T (Θ_rot/T up to ${messageNumber(largest, 3)}): the classical rotational partition function is used and loses accuracy here.`)
   }
 
   let vibrationalLnQ = 0

@@ -9,7 +9,7 @@ import { z } from 'zod'
 import { BOLTZMANN_CONSTANT, GAS_CONSTANT, LN10 } from '../constants'
 import { boltzmannStatistics, finiteOrNull, molarFunctions } from '../numerics'
 import { labelField, strictObject, wholeNumber } from '../schema'
-import { joulesToWavenumber } from '../units'
+import { joulesToWavenumber, messageNumber } from '../units'
 import { energyField, positiveEnergyField, temperatureField } from './common'
 
 const modeSchema = strictObject({
@@ -146,9 +146,9 @@ export function computeVibration(input: VibrationInput, warnings: string[] = [])
       entropy = molar.entropy
       heatCapacity = molar.heatCapacity
       if (limit === top && fractions[limit]! > 1e-6) {
-        warnings.push(`${name}: the anharmonic ladder ends at dissociation (last bound level v = ${top}) while that level still holds a fraction of ${fractions[limit]!.toPrecision(3)}; the bound-level sum leaves out the continuum.`)
+        warnings.push(`${name}: the anharmonic ladder ends at dissociation (last bound level v = ${top}) while that level still holds a fraction of ${messageNumber(fractions[limit]!, 3)}; the bound-level sum leaves out the continuum.`)
       } else if (limit < top && fractions[limit]! > 1e-6) {
-        warnings.push(`${name}: the sum stops at v = ${limit} (maxQuantum) while that level still holds a fraction of ${fractions[limit]!.toPrecision(3)}; raise maxQuantum.`)
+        warnings.push(`${name}: the sum stops at v = ${limit} (maxQuantum) while that level still holds a fraction of ${messageNumber(fractions[limit]!, 3)}; raise maxQuantum.`)
       }
       let reportLast = limit
       if (input.maxQuantum === undefined) {
@@ -167,7 +167,7 @@ export function computeVibration(input: VibrationInput, warnings: string[] = [])
       }
     }
     if (x < 0.1) {
-      warnings.push(`${name}: kT is more than ten times the vibrational quantum (Θ_vib/T = ${x.toPrecision(3)}); the mode is near its classical limit and real molecules would be far up an anharmonic ladder.`)
+      warnings.push(`${name}: kT is more than ten times the vibrational quantum (Θ_vib/T = ${messageNumber(x, 3)}); the mode is near its classical limit and real molecules would be far up an anharmonic ladder.`)
     }
     const degeneracy = mode.degeneracy
     totalLnQ += degeneracy * lnQ

@@ -2,6 +2,7 @@
 // level table of any size keeps the same JSON (and so the same signed record) as plain lists.
 import { describe, expect, it } from 'vitest'
 import { FlagColumn, NumberColumn, evaluate } from '../../../shared/thermo/index'
+import { messageNumber } from '../../../shared/thermo/units'
 
 describe('result columns', () => {
   it('write numbers as a JSON array, with NaN and ±Infinity as null like the rest of a result', () => {
@@ -53,5 +54,15 @@ describe('levels given as a level table', () => {
     expect(json.levelTable.fractions).toEqual([1, 0])
     expect(json.levelTable.log10Fractions).toEqual([0, null])
     expect(evaluation.warnings.join(' ')).toMatch(/outside the range of a double/)
+  })
+})
+
+describe('numbers in warnings', () => {
+  it('write powers of ten out rather than in e-notation', () => {
+    expect(messageNumber(6.02214076e23, 4)).toBe('6.022×10²³')
+    expect(messageNumber(1.5e-7, 2)).toBe('1.5×10⁻⁷')
+    expect(messageNumber(0.25, 3)).toBe('0.250')
+    const evaluation = evaluate({ kind: 'levels', input: { levels: [{ energy: '0 eV' }, { energy: '5 eV' }], temperature: '300 K', amount: '1 mol' } })
+    expect(evaluation.warnings.join(' ')).toContain('out of 6.022×10²³')
   })
 })
