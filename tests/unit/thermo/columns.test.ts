@@ -59,6 +59,7 @@ describe('levels given as a level table', () => {
 
 describe('numbers in warnings', () => {
   it('write powers of ten out rather than in e-notation', () => {
+    // N_A = 6.022 140 76 × 10²³ mol⁻¹ (SI 2019, exact), as a '1 mol' amount reads in a warning.
     expect(messageNumber(6.02214076e23, 4)).toBe('6.022×10²³')
     expect(messageNumber(1.5e-7, 2)).toBe('1.5×10⁻⁷')
     expect(messageNumber(0.25, 3)).toBe('0.250')

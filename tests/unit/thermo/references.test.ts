@@ -109,8 +109,9 @@ describe('Nuclear spin polarization', () => {
   // independent check: the Larmor frequency of each nucleus over that of 1H in the same field.
   // Reference: the frequency ratios Ξ of the IUPAC recommendations (Harris et al., Pure Appl.
   // Chem. 73, 1795 (2001), Table 1: 13C 25.145020 %, 15N 10.136767 %, 19F 94.094011 %, 31P
-  // 40.480742 %; the same ratios appear in Bruker's NMR frequency tables (2012), e.g. 13C at
-  // 100.613 MHz beside 1H at 400.130 MHz). Ξ is measured on reference compounds (TMS, CH3NO2,
+  // 40.480742 %; the 13C, 19F and 31P ratios also appear in Bruker's NMR frequency tables (2012),
+  // e.g. 13C at 100.613 MHz beside 1H at 400.130 MHz; the 15N ratio is quoted from memory of
+  // the IUPAC table). Ξ is measured on reference compounds (TMS, CH3NO2,
   // CFCl3, 85 % H3PO4) rather than bare nuclei, so the two ratios differ by shielding: here by
   // 2 × 10⁻⁴ (13C) to 9 × 10⁻⁴ (31P). The check therefore allows 10⁻³: it catches a wrong
   // leading digit or exponent, not an error in the last digits.
