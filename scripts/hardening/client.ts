@@ -1,4 +1,5 @@
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo'
+import { rememberCookies } from '../../tests/support/cookies'
 
 export type DemoKey = (typeof DEMO_PEOPLE)[number]['key']
 export const demoEmail = (key: DemoKey) => DEMO_PEOPLE.find(p => p.key === key)!.email
@@ -29,12 +30,7 @@ export class Client {
     }
     Object.assign(headers, extraHeaders)
     const response = await fetch(`${this.baseURL}${path}`, { method, headers, body: payload as string | Uint8Array<ArrayBuffer> | undefined, redirect: 'manual', signal: AbortSignal.timeout(timeoutMs) })
-    for (const cookie of response.headers.getSetCookie()) {
-      const pair = cookie.split(';')[0]!
-      const [name] = pair.split('=')
-      const others = this.cookie.split('; ').filter(c => c && !c.startsWith(`${name}=`))
-      this.cookie = [...others, pair].filter(c => !c.endsWith('=')).join('; ')
-    }
+    this.cookie = rememberCookies(this.cookie, response.headers.getSetCookie())
     const text = await response.text()
     let parsed: unknown = text
     try { parsed = JSON.parse(text) } catch { /* not JSON */ }

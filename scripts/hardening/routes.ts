@@ -7,6 +7,7 @@
  */
 import { existsSync, readdirSync, statSync } from 'node:fs'
 import { join, relative } from 'node:path'
+import { levelsKind } from '../../shared/thermo/kinds/levels'
 import { Client, signedIn, type DemoKey } from './client'
 import { ROOT } from './env'
 
@@ -45,23 +46,15 @@ export interface RouteRow {
   limitMB?: number
 }
 
-const levelsInput = {
-  levels: [
-    { label: 'v = 0', energy: '0 cm^-1', degeneracy: 1 },
-    { label: 'v = 1', energy: '2143.3 cm^-1', degeneracy: 1 },
-    { label: 'v = 2', energy: '4260.1 cm^-1', degeneracy: 1 },
-  ],
-  temperature: '298.15 K',
-  amount: '1 mol',
-}
-export const LEVELS_INPUT = levelsInput
+/** A valid levels input: the kind's own example (three levels, an amount). */
+export const LEVELS_INPUT = levelsKind.exampleInput
 
 const doc = { type: 'doc', content: [{ type: 'paragraph', content: [{ type: 'text', text: 'Fuzzed.' }] }] }
 
 export const ROUTES: RouteRow[] = [
   { method: 'POST', file: 'auth/login.post.ts', path: () => '/api/auth/login', as: 'anonymous', body: 'json', valid: () => ({ email: 'nobody@kestrel-ridge.example', password: 'wrong password' }) },
   { method: 'POST', file: 'auth/logout.post.ts', path: () => '/api/auth/logout', as: 'anonymous', body: 'none' },
-  { method: 'POST', file: 'calculations/index.post.ts', path: () => '/api/calculations', as: 'amara', body: 'json', valid: () => ({ kind: 'levels', input: levelsInput }) },
+  { method: 'POST', file: 'calculations/index.post.ts', path: () => '/api/calculations', as: 'amara', body: 'json', valid: () => ({ kind: 'levels', input: LEVELS_INPUT }) },
   { method: 'POST', file: 'notebooks/index.post.ts', path: () => '/api/notebooks', as: 'hana', body: 'json', valid: () => ({ name: `Fuzz notebook ${Math.random()}`, description: '', memberIds: [] }) },
   { method: 'PUT', file: 'notebooks/[id]/members.put.ts', path: f => `/api/notebooks/${f.ids.fuzzNotebook}/members`, as: 'hana', body: 'json', valid: f => ({ memberIds: [f.ids.amara] }) },
   { method: 'POST', file: 'notebooks/[id]/entries.post.ts', path: f => `/api/notebooks/${f.ids.notebook}/entries`, as: 'amara', body: 'json', valid: () => ({ title: 'Fuzzed entry', content: doc }) },
@@ -70,8 +63,8 @@ export const ROUTES: RouteRow[] = [
   { method: 'PATCH', file: 'people/[id].patch.ts', path: f => `/api/people/${f.ids.fuzzPerson}`, as: 'hana', body: 'json', valid: () => ({ name: 'Fuzz Person Renamed' }) },
   { method: 'POST', file: 'admin/tokens/index.post.ts', path: () => '/api/admin/tokens', as: 'hana', body: 'json', valid: f => ({ name: 'fuzz token', actsFor: f.ids.amara, scopes: ['records:read'] }) },
   { method: 'DELETE', file: 'admin/tokens/[id].delete.ts', path: f => `/api/admin/tokens/${f.ids.token}`, as: 'hana', body: 'none' },
-  { method: 'POST', file: 'v1/calculations.post.ts', path: () => '/api/v1/calculations', as: 'token', body: 'json', valid: () => ({ kind: 'levels', input: levelsInput }), note: 'bearer token; exempt from the same-origin check (no cookie)' },
-  { method: 'POST', file: 'v1/notebooks/[id]/entries.post.ts', path: f => `/api/v1/notebooks/${f.ids.notebook}/entries`, as: 'token', body: 'json', valid: () => ({ title: 'Fuzzed via API', text: 'Paragraph.', blocks: [{ kind: 'levels', input: levelsInput }] }), note: 'bearer token' },
+  { method: 'POST', file: 'v1/calculations.post.ts', path: () => '/api/v1/calculations', as: 'token', body: 'json', valid: () => ({ kind: 'levels', input: LEVELS_INPUT }), note: 'bearer token; exempt from the same-origin check (no cookie)' },
+  { method: 'POST', file: 'v1/notebooks/[id]/entries.post.ts', path: f => `/api/v1/notebooks/${f.ids.notebook}/entries`, as: 'token', body: 'json', valid: () => ({ title: 'Fuzzed via API', text: 'Paragraph.', blocks: [{ kind: 'levels', input: LEVELS_INPUT }] }), note: 'bearer token' },
   // Signing (branch signing)
   { method: 'POST', file: 'keys/index.post.ts', path: () => '/api/keys', as: 'amara', body: 'json', from: 'signing', valid: () => ({ publicKey: 'AAAA', sealedSecretKey: {}, password: 'wrong' }) },
   { method: 'POST', file: 'entries/[id]/challenge.post.ts', path: f => `/api/entries/${f.ids.fuzzEntry}/challenge`, as: 'amara', body: 'json', from: 'signing', valid: () => ({ meaning: 'authored' }) },

@@ -4,6 +4,7 @@
 import { canonicalJson, formatFingerprint, type Calculation, type RecordBundle, type VerificationReport } from '../../shared/records'
 import { auditActionWords } from '../../shared/audit/actions'
 import { formatNumber } from '../../shared/charts'
+import { utcText } from '../../shared/time'
 import { pdfChartForCalculation } from './charts'
 import { svgForPdf } from './svg'
 import { textRuns, type TextRun } from './text'
@@ -57,12 +58,6 @@ const INK_FAINT = '#7a7468'
 const RULE = '#cfc7b3'
 const PAPER_DEEP = '#f3eee2'
 
-/** "2026-03-01 12:00:05 UTC" from an ISO time. */
-export function utcText(iso: string): string {
-  const date = new Date(iso)
-  if (Number.isNaN(date.getTime())) return iso
-  return `${date.toISOString().slice(0, 19).replace('T', ' ')} UTC`
-}
 
 type Content = Record<string, unknown> | string | Content[]
 type Inline = string | Record<string, unknown>

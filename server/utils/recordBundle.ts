@@ -1,6 +1,6 @@
 import { and, asc, desc, eq } from 'drizzle-orm'
 import type { RecordBundle } from '#shared/records'
-import { auditEvents, entries, entryVersions, signatures, type Entry, type EntryState } from '../database/schema'
+import { auditEvents, entries, entryVersions, type Entry, type EntryState } from '../database/schema'
 import type { PdfAuditEvent } from '../pdf/document'
 import type { SessionPerson } from './auth'
 import { signingBundleOf } from './recordVerify'
@@ -34,7 +34,6 @@ export async function loadBundleForExport(entryId: string, version?: number): Pr
   // The same bundle the signing routes serve (GET /api/records/:id/bundle): one builder, so an
   // export and a bundle download of one version are the same bytes.
   const bundle = await signingBundleOf(database, frozen)
-  const signerRows = await database.select({ signerId: signatures.signerId }).from(signatures).where(eq(signatures.entryVersionId, frozen.id))
   const events = await database.select({
     sequence: auditEvents.sequence, occurredAt: auditEvents.occurredAt, action: auditEvents.action,
     actorEmail: auditEvents.actorEmail, details: auditEvents.details,
@@ -45,7 +44,8 @@ export async function loadBundleForExport(entryId: string, version?: number): Pr
     entry,
     version: frozen.version,
     state: frozen.version < entry.version ? 'superseded' : entry.state,
-    signerIds: [...new Set(signerRows.map(row => row.signerId))],
+    // The signing route stores a signature only when its statement names the person signing.
+    signerIds: [...new Set(bundle.signatures.map(signature => signature.statement.signer.id))],
     auditEvents: events
       .filter(event => !READ_ONLY_RECORD_ACTIONS.includes(event.action))
       .map(event => ({ ...event, occurredAt: event.occurredAt.toISOString() })),

@@ -5,6 +5,7 @@
  * (parseFloat plus a cached factor), so long level lists convert without mathjs per level.
  */
 import { all, create } from 'mathjs'
+import { toSuperscript } from '../charts/format'
 import {
   ATOMIC_MASS_CONSTANT,
   AVOGADRO_CONSTANT,
@@ -286,15 +287,11 @@ export function toGyromagneticRatio(text: unknown, path = 'gyromagneticRatio'): 
   return quantity.namesHertz ? quantity.si * 2 * Math.PI : quantity.si
 }
 
-const SUPERSCRIPT: Record<string, string> = { '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹' }
-
 /** A number for a warning, to `digits` significant digits, with powers of ten written out (6.022×10²³). */
 export function messageNumber(value: number, digits = 3): string {
   const text = value.toPrecision(digits)
   const match = /^(-?[\d.]+)e([+-]\d+)$/.exec(text)
-  if (!match) return text
-  const exponent = String(Number(match[2])).replace(/[-\d]/g, (character) => SUPERSCRIPT[character]!)
-  return `${match[1]}×10${exponent}`
+  return match ? `${match[1]}×10${toSuperscript(String(Number(match[2])))}` : text
 }
 
 /** Short human form of a number for messages. */

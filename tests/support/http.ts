@@ -1,5 +1,6 @@
 import { inject } from 'vitest'
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../../shared/demo'
+import { rememberCookies } from './cookies'
 
 export const baseURL = () => inject('baseURL')
 
@@ -27,13 +28,7 @@ export class Client {
       payload = typeof body === 'string' ? body : JSON.stringify(body)
     }
     const response = await fetch(`${baseURL()}${path}`, { method, headers, body: payload, redirect: 'manual' })
-    const setCookie = response.headers.getSetCookie()
-    for (const cookie of setCookie) {
-      const pair = cookie.split(';')[0]!
-      const [name] = pair.split('=')
-      const others = this.cookie.split('; ').filter(c => c && !c.startsWith(`${name}=`))
-      this.cookie = [...others, pair].filter(c => !c.endsWith('=')).join('; ')
-    }
+    this.cookie = rememberCookies(this.cookie, response.headers.getSetCookie())
     const text = await response.text()
     let parsed: unknown = text
     try { parsed = JSON.parse(text) } catch { /* not JSON */ }

@@ -5,10 +5,10 @@
 import { randomUUID } from 'node:crypto'
 import pg from 'pg'
 import {
-  buildBundle, buildRecord, generateSigningKeyPair, keyFingerprint, sealSecretKey, signStatement, statementHash,
+  buildBundle, buildRecord, calculationsFromContent, generateSigningKeyPair, keyFingerprint, sealSecretKey, signStatement, statementHash,
   STATEMENT_SCHEMA, bytesToBase64, type RecordBundle, type SignatureEnvelope, type SigningKeyPair,
 } from '../../shared/records'
-import { evaluate } from '../../shared/thermo'
+import { levelsKind } from '../../shared/thermo/kinds/levels'
 import { auditRowHash, GENESIS_HASH } from '../../server/database/audit-chain'
 
 export interface FixturePerson { id: string, name: string, email: string }
@@ -63,15 +63,7 @@ export function fixtureContent(blocks: { blockId: string, kind: string, title: s
 export const DEFAULT_BLOCKS = [
   {
     kind: 'levels', title: 'CO vibrational ladder at 298.15 K',
-    input: {
-      levels: [
-        { label: 'v = 0', energy: '0 cm^-1', degeneracy: 1 },
-        { label: 'v = 1', energy: '2143.3 cm^-1', degeneracy: 1 },
-        { label: 'v = 2', energy: '4260.1 cm^-1', degeneracy: 1 },
-      ],
-      temperature: '298.15 K',
-      amount: '1 mol',
-    },
+    input: levelsKind.exampleInput,
   },
   {
     kind: 'rotation', title: 'CO rotational populations',
@@ -111,12 +103,8 @@ export async function signedBundle(options: SignedBundleOptions): Promise<Signed
   const record = buildRecord({
     entry: { id: entryId, notebook: options.notebook, version, supersedes: version > 1 ? version - 1 : null, title: options.title, content: content as never },
     attachments: options.attachments ?? [],
-    calculations: blocks.map((block) => {
-      const evaluated = evaluate({ kind: block.kind, input: block.input })
-      // In its JSON form, as calculationsFromContent records it: a level table's result columns are typed arrays.
-      const result = JSON.parse(JSON.stringify(evaluated.result))
-      return { blockId: block.blockId, kind: block.kind, input: block.input as never, result, engineVersion: evaluated.engineVersion, warnings: evaluated.warnings }
-    }),
+    // Evaluated as the app records them (calculationsFromContent: engine results in their JSON form).
+    calculations: calculationsFromContent(content),
   })
   const { recordHash } = await buildBundle({ record, signatures: [], publicKeys: [] })
   const envelopes: SignedBundle['envelopes'] = []
