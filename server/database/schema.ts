@@ -20,18 +20,6 @@ const updatedAt = timestamp('updated_at', { withTimezone: true, mode: 'date' }).
 
 export const roleEnum = pgEnum('role', ['scientist', 'witness', 'compliance', 'admin'])
 
-/**
- * Entry states. `draft` can be edited; `awaiting_witness` is signed by its author;
- * `witnessed` carries a countersignature; `declined` was refused by the witness;
- * `superseded` was replaced by an amendment.
- */
-export const entryStateEnum = pgEnum('entry_state', [
-  'draft',
-  'awaiting_witness',
-  'witnessed',
-  'declined',
-  'superseded',
-])
 
 export const people = pgTable('people', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -69,8 +57,9 @@ export const notebookMembers = pgTable('notebook_members', {
 
 /**
  * An entry is the working copy a scientist edits. `version` counts its versions: a signed
- * version is frozen into `entry_versions` (later issue) and an amendment starts version + 1,
- * naming the version it supersedes. `lockVersion` guards concurrent edits (optimistic
+ * version is frozen into `entry_versions` and an amendment starts version + 1, naming the
+ * version it supersedes. Its state is not stored: it is derived from the frozen tables
+ * (shared/records/lifecycle.ts, server/utils/lifecycle.ts). `lockVersion` guards concurrent edits (optimistic
  * concurrency: a save names the lock version it started from).
  */
 export const entries = pgTable('entries', {
@@ -79,7 +68,6 @@ export const entries = pgTable('entries', {
   authorId: uuid('author_id').notNull().references(() => people.id),
   title: text('title').notNull(),
   content: jsonb('content').notNull(),
-  state: entryStateEnum('state').notNull().default('draft'),
   version: integer('version').notNull().default(1),
   supersedesVersion: integer('supersedes_version'),
   lockVersion: integer('lock_version').notNull().default(1),
@@ -128,7 +116,6 @@ export type Notebook = typeof notebooks.$inferSelect
 export type Entry = typeof entries.$inferSelect
 export type AuditEvent = typeof auditEvents.$inferSelect
 export type Role = (typeof roleEnum.enumValues)[number]
-export type EntryState = (typeof entryStateEnum.enumValues)[number]
 
 // ---------------------------------------------------------------------------------------
 // Signed records (issue: signatures), data files, exports and integration tokens.

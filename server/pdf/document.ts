@@ -4,12 +4,13 @@
 import { canonicalJson, formatFingerprint, type Calculation, type RecordBundle, type VerificationReport } from '../../shared/records'
 import { auditActionWords } from '../../shared/audit/actions'
 import { formatNumber } from '../../shared/charts'
+import type { VersionStatus } from '../../shared/records/lifecycle'
 import { utcText } from '../../shared/time'
 import { pdfChartForCalculation } from './charts'
 import { svgForPdf } from './svg'
 import { textRuns, type TextRun } from './text'
 
-export type PdfEntryState = 'draft' | 'awaiting_witness' | 'witnessed' | 'declined' | 'superseded'
+export type PdfEntryState = VersionStatus
 
 export interface PdfAuditEvent {
   sequence: number

@@ -1,6 +1,7 @@
-import { and, eq } from 'drizzle-orm'
+import { and, eq, getTableColumns } from 'drizzle-orm'
 import { entries, notebookMembers, notebooks } from '../database/schema'
 import type { SessionPerson } from './auth'
+import { entryStateSql, type EntryWithState } from './lifecycle'
 
 export async function isMember(notebookId: string, personId: string): Promise<boolean> {
   const [row] = await useDatabase().select({ personId: notebookMembers.personId }).from(notebookMembers)
@@ -16,9 +17,12 @@ export async function readableNotebook(person: SessionPerson, notebookId: string
   return notebook
 }
 
-/** The entry if this person may read it (member of its notebook, or compliance/admin). */
-export async function readableEntry(person: SessionPerson, entryId: string) {
-  const [entry] = await useDatabase().select().from(entries).where(eq(entries.id, entryId)).limit(1)
+/**
+ * The entry if this person may read it (member of its notebook, or compliance/admin), with its
+ * state derived from the frozen tables (server/utils/lifecycle.ts).
+ */
+export async function readableEntry(person: SessionPerson, entryId: string): Promise<EntryWithState> {
+  const [entry] = await useDatabase().select({ ...getTableColumns(entries), state: entryStateSql() }).from(entries).where(eq(entries.id, entryId)).limit(1)
   if (!entry || (!readsAllNotebooks(person) && !(await isMember(entry.notebookId, person.id))))
     throw createError({ statusCode: 404, message: 'No such entry, or it is not shared with you.' })
   return entry

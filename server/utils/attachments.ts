@@ -105,10 +105,3 @@ export function refuseOversizedAttachmentRequest(event: H3Event) {
     attachmentTooLarge()
 }
 
-/** Only the author changes the files of an entry, and only while it is a draft. */
-export function requireAttachmentEditor(person: SessionPerson, entry: { authorId: string, state: string }) {
-  if (entry.authorId !== person.id)
-    throw createError({ statusCode: 403, message: 'Only the author of an entry adds or removes its files.' })
-  if (entry.state !== 'draft')
-    throw createError({ statusCode: 409, message: 'This version is signed and locked: its files cannot change. Amend it to make changes.' })
-}

@@ -1,6 +1,7 @@
 import { and, asc, desc, eq } from 'drizzle-orm'
 import type { RecordBundle } from '#shared/records'
-import { auditEvents, entries, entryVersions, type Entry, type EntryState } from '../database/schema'
+import type { VersionStatus } from '#shared/records/lifecycle'
+import { auditEvents, entries, entryVersions, type Entry } from '../database/schema'
 import type { PdfAuditEvent } from '../pdf/document'
 import type { SessionPerson } from './auth'
 import { signingBundleOf } from './recordVerify'
@@ -11,7 +12,7 @@ export interface ExportRecord {
   entry: Entry
   version: number
   /** State of this version: the entry's own state for its newest version, 'superseded' before. */
-  state: EntryState
+  state: VersionStatus
   signerIds: string[]
   auditEvents: PdfAuditEvent[]
 }
@@ -25,8 +26,9 @@ export const READ_ONLY_RECORD_ACTIONS = ['record_exported', 'record_bundle_downl
  */
 export async function loadBundleForExport(entryId: string, version?: number): Promise<ExportRecord | null> {
   const database = useDatabase()
-  const [entry] = await database.select().from(entries).where(eq(entries.id, entryId)).limit(1)
-  if (!entry) return null
+  const [row] = await database.select().from(entries).where(eq(entries.id, entryId)).limit(1)
+  if (!row) return null
+  const entry = await lifecycleWithState(database, row)
   const [frozen] = await database.select().from(entryVersions)
     .where(version === undefined ? eq(entryVersions.entryId, entryId) : and(eq(entryVersions.entryId, entryId), eq(entryVersions.version, version)))
     .orderBy(desc(entryVersions.version)).limit(1)
@@ -43,7 +45,7 @@ export async function loadBundleForExport(entryId: string, version?: number): Pr
     bundle,
     entry,
     version: frozen.version,
-    state: frozen.version < entry.version ? 'superseded' : entry.state,
+    state: lifecycleVersionStatus(frozen.version, entry),
     // The signing route stores a signature only when its statement names the person signing.
     signerIds: [...new Set(bundle.signatures.map(signature => signature.statement.signer.id))],
     auditEvents: events

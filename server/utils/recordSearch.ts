@@ -18,8 +18,8 @@ export interface RecordRow {
   recordHash: string
 }
 
-// State of a version: the entry's state for its newest version; an older one was superseded.
-const versionState = sql`CASE WHEN ev.version < e.version THEN 'superseded' ELSE e.state::text END`
+// State of a version: the entry's (derived) state for its newest version; an older one was superseded.
+const versionState = versionStatusSql(sql`ev.version`, sql`e.id`, sql`e.version`)
 
 const FROM = sql`
   FROM entry_versions ev

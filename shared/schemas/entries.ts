@@ -1,7 +1,10 @@
 import { z } from 'zod'
 
-export const ENTRY_STATES = ['draft', 'awaiting_witness', 'witnessed', 'declined', 'superseded'] as const
-export type EntryStateName = (typeof ENTRY_STATES)[number]
+import { VERSION_STATUSES, type VersionStatus } from '../records/lifecycle'
+
+/** The states a version can show (the rule that derives them is shared/records/lifecycle.ts). */
+export const ENTRY_STATES = VERSION_STATUSES
+export type EntryStateName = VersionStatus
 
 /** Words shown beside each state's colour (DESIGN.md: colour never stands alone). */
 export const ENTRY_STATE_WORDS: Record<EntryStateName, string> = {

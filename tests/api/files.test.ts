@@ -302,8 +302,9 @@ describe('who may attach, read and remove', () => {
     const signedId = await newDraft(amara, notebooks.find(n => n.name.startsWith('Infrared'))!.id, `Signed data ${Date.now()}`)
     const kept = await uploadFile(amara, `/api/entries/${signedId}/attachments`, 'kept.csv', 'E\n0\n')
     expect(kept.status).toBe(201)
-    // Signing is not built yet: set the state the way signing will.
-    await database.query(`UPDATE entries SET state = 'awaiting_witness' WHERE id = $1`, [signedId])
+    // Freeze the version as a signature does (the state is derived from entry_versions).
+    await database.query(`INSERT INTO entry_versions (entry_id, version, title, content, record, record_hash, frozen_at, frozen_by)
+      SELECT id, version, title, content, '{}'::jsonb, repeat('0', 64), now(), author_id FROM entries WHERE id = $1`, [signedId])
     const rowsBefore = await attachmentCount()
     const filesBefore = filesUnder(uploadsDir)
     const upload = await uploadFile(amara, `/api/entries/${signedId}/attachments`, 'late.csv', 'E\n0\n')

@@ -197,11 +197,11 @@ export async function createSignedRecord(databaseURL: string, options: StoredRec
     const witnessKey = witness ? await keyFor(client, witness) : undefined
     const made = await signedBundle({ notebook, title: options.title, author, authorKey, witness, witnessKey, signedAt: options.signedAt, blocks: options.blocks, attachments: options.attachments })
     const signedAt = new Date(made.envelopes[0]!.envelope.statement.signedAt)
-    const state = witness ? 'witnessed' : 'awaiting_witness'
+    // No state column: the state follows from the frozen version and its signatures.
     await client.query(
-      `INSERT INTO entries (id, notebook_id, author_id, title, content, state, version, created_at, updated_at)
-       VALUES ($1, $2, $3, $4, $5, $6, 1, $7, $7)`,
-      [made.entryId, notebook.id, author.id, options.title, JSON.stringify(made.content), state, new Date(signedAt.getTime() - 86_400_000)],
+      `INSERT INTO entries (id, notebook_id, author_id, title, content, version, created_at, updated_at)
+       VALUES ($1, $2, $3, $4, $5, 1, $6, $6)`,
+      [made.entryId, notebook.id, author.id, options.title, JSON.stringify(made.content), new Date(signedAt.getTime() - 86_400_000)],
     )
     for (const file of options.attachments ?? []) {
       await client.query(

@@ -13,14 +13,14 @@ export default defineEventHandler(async (event) => {
   const person = await requireRole(event, 'scientist')
   const { id } = validParams(event, paramsSchema)
   const { attachment, uploaderName, entry } = await readableAttachment(person, id)
-  requireAttachmentEditor(person, entry)
+  lifecycleRequireEditor(person, entry)
   if (attachment.detachedAt)
     return { attachment: publicAttachment(attachment, { id: attachment.uploadedBy, name: uploaderName }) }
 
   const database = useDatabase()
   const updated = await database.transaction(async (tx) => {
-    const [current] = await tx.select({ state: entries.state }).from(entries).where(eq(entries.id, entry.id)).for('update')
-    requireAttachmentEditor(person, { authorId: entry.authorId, state: current?.state ?? 'missing' })
+    const current = await lifecycleWithState(tx, await signingLockEntry(tx, entry.id))
+    lifecycleRequireEditor(person, current)
     // Database time, like uploadedAt and a version's frozenAt, so verify compares one clock.
     const [row] = await tx.update(attachments).set({ detachedAt: sql`clock_timestamp()` })
       .where(and(eq(attachments.id, id), isNull(attachments.detachedAt))).returning()

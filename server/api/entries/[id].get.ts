@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { z } from 'zod'
+import { mayDo } from '#shared/records/lifecycle'
 import { uuidSchema } from '#shared/schemas/notebooks'
 import { notebooks, people } from '../../database/schema'
 
@@ -18,6 +19,6 @@ export default defineEventHandler(async (event) => {
     entry,
     author,
     notebook,
-    canEdit: entry.authorId === person.id && entry.state === 'draft' && person.roles.includes('scientist'),
+    canEdit: mayDo('edit', person, { authorId: entry.authorId, state: entry.state, personIsMember: true, personAskedToWitness: false }).allowed,
   }
 })

@@ -11,10 +11,7 @@ export default defineEventHandler(async (event) => {
   const { id } = await validParams(event, paramsSchema)
   const body = await validBody(event, updateEntrySchema)
   const entry = await readableEntry(person, id)
-  if (entry.authorId !== person.id)
-    throw createError({ statusCode: 403, message: 'Only the author edits an entry.' })
-  if (entry.state !== 'draft')
-    throw createError({ statusCode: 409, message: 'This version is signed and locked. Amend it to make changes.' })
+  lifecycleRequireEditor(person, entry)
   // The deep check evaluates every block with the engine: only for the author's own draft.
   if (body.content !== undefined)
     assertEditorDocumentValid(body.content)
@@ -26,7 +23,7 @@ export default defineEventHandler(async (event) => {
       ...(body.content !== undefined ? { content: body.content } : {}),
       lockVersion: sql`${entries.lockVersion} + 1`,
       updatedAt: new Date(),
-    }).where(and(eq(entries.id, id), eq(entries.lockVersion, body.lockVersion), eq(entries.state, 'draft'))).returning()
+    }).where(and(eq(entries.id, id), eq(entries.lockVersion, body.lockVersion), eq(entryStateSql(), 'draft'))).returning()
     if (!row)
       return undefined
     await recordAudit(database, {

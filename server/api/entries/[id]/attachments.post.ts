@@ -15,7 +15,7 @@ export default defineEventHandler(async (event) => {
   if (!(getRequestHeader(event, 'content-type') ?? '').toLowerCase().startsWith('multipart/form-data'))
     validationError([{ path: 'file', message: 'send the file as multipart/form-data in a field named "file"' }], 'body')
   const entry = await readableEntry(person, id)
-  requireAttachmentEditor(person, entry)
+  lifecycleRequireEditor(person, entry)
 
   const boundary = multipartBoundary(getRequestHeader(event, 'content-type'))
   if (!boundary)
@@ -44,8 +44,8 @@ export default defineEventHandler(async (event) => {
     await attachmentStorage().setItemRaw(storageKey, part.data)
     row = await database.transaction(async (tx) => {
       // Lock the entry so that it cannot be signed between the check above and this insert.
-      const [current] = await tx.select({ state: entries.state }).from(entries).where(eq(entries.id, entry.id)).for('update')
-      requireAttachmentEditor(person, { authorId: entry.authorId, state: current?.state ?? 'missing' })
+      const current = await lifecycleWithState(tx, await signingLockEntry(tx, entry.id))
+      lifecycleRequireEditor(person, current)
       const [inserted] = await tx.insert(attachments).values({
         entryId: entry.id, name, storageKey, mediaType: check.mediaType, size: part.data.length, sha256, uploadedBy: person.id,
       }).returning()

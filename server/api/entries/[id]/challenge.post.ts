@@ -18,30 +18,16 @@ export default defineEventHandler(async (event) => {
   const person = await requirePerson(event)
   const { id } = await validParams(event, paramsSchema)
   const { meaning } = await validBody(event, challengeBodySchema)
-  if (!hasRole(person, meaning === 'authored' ? 'scientist' : 'witness'))
-    throw createError({ statusCode: 403, message: meaning === 'authored' ? 'Signing an entry needs the scientist role.' : 'Countersigning needs the witness role.' })
-  const entry = await readableEntry(person, id)
+  const entry = await lifecycleAllowed(person, id, meaning === 'authored' ? 'sign' : 'countersign')
   const database = useDatabase()
 
   let record: RecordDocument
   let recordHash: string
   let countersigns: string | undefined
   if (meaning === 'authored') {
-    if (entry.authorId !== person.id)
-      throw createError({ statusCode: 403, message: 'Only the author signs an entry.' })
-    if (entry.state !== 'draft')
-      throw createError({ statusCode: 409, message: 'This version is already signed. Amend it to sign a new version.' })
     ;({ record, recordHash } = await signingRecordOfDraft(database, entry))
   }
   else {
-    if (entry.authorId === person.id)
-      throw createError({ statusCode: 403, message: 'Nobody witnesses their own entry.' })
-    if (!(await isMember(entry.notebookId, person.id)))
-      throw createError({ statusCode: 403, message: 'Only a witness who belongs to this notebook countersigns its entries.' })
-    if (entry.state !== 'awaiting_witness')
-      throw createError({ statusCode: 409, message: 'This entry is not waiting for a witness.' })
-    if (!(await signingOpenRequestFor(database, entry.id, entry.version, person.id)))
-      throw createError({ statusCode: 403, message: 'The author has not asked you to witness this version.' })
     const version = (await signingFrozenVersion(database, entry.id, entry.version))!
     const [authored] = await database.select().from(signatures)
       .where(and(eq(signatures.entryVersionId, version.id), eq(signatures.meaning, 'authored'))).limit(1)

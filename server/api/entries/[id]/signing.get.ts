@@ -1,5 +1,6 @@
 import { and, desc, eq } from 'drizzle-orm'
 import { z } from 'zod'
+import { openActions } from '#shared/records/lifecycle'
 import { uuidSchema } from '#shared/schemas/notebooks'
 import { people, witnessRequests } from '../../../database/schema'
 
@@ -25,8 +26,7 @@ export default defineEventHandler(async (event) => {
     .orderBy(desc(witnessRequests.requestedAt)).limit(100)
   const latest = await signingFrozenVersion(database, id)
   const key = await signingActiveKey(database, person.id)
-  const askedNow = requests.some(r => r.witness.id === person.id && r.version === entry.version && r.resolvedAt === null)
-  const witnessHere = hasRole(person, 'witness') && !isAuthor && (await isMember(entry.notebookId, person.id))
+  const can = openActions(person, await lifecycleEntryFor(person, entry))
   return {
     entry: { id: entry.id, state: entry.state, version: entry.version, supersedesVersion: entry.supersedesVersion, lockVersion: entry.lockVersion },
     isAuthor,
@@ -34,11 +34,11 @@ export default defineEventHandler(async (event) => {
     activeKey: key ? { id: key.id, fingerprint: key.fingerprint } : null,
     requests,
     can: {
-      sign: isAuthor && hasRole(person, 'scientist') && entry.state === 'draft',
-      requestWitness: isAuthor && hasRole(person, 'scientist') && entry.state === 'awaiting_witness',
-      amend: isAuthor && hasRole(person, 'scientist') && ['awaiting_witness', 'witnessed', 'declined'].includes(entry.state),
-      countersign: witnessHere && askedNow && entry.state === 'awaiting_witness',
-      decline: witnessHere && askedNow && entry.state === 'awaiting_witness',
+      sign: can.sign,
+      requestWitness: can.requestWitness,
+      amend: can.amend,
+      countersign: can.countersign,
+      decline: can.decline,
     },
   }
 })

@@ -10,7 +10,7 @@ const sortColumns = {
   title: entries.title,
   updatedAt: entries.updatedAt,
   createdAt: entries.createdAt,
-  state: entries.state,
+  state: entryStateSql(),
   author: people.name,
 } as const
 
@@ -27,7 +27,7 @@ export default defineEventHandler(async (event) => {
 
   const conditions: SQL[] = [eq(entries.notebookId, id)]
   if (query.q) conditions.push(ilike(entries.title, likePattern(query.q)))
-  if (query.state) conditions.push(eq(entries.state, query.state))
+  if (query.state) conditions.push(eq(entryStateSql(), query.state))
   if (query.author) conditions.push(eq(entries.authorId, query.author))
   const where = and(...conditions)
 
@@ -35,7 +35,7 @@ export default defineEventHandler(async (event) => {
   const order = query.direction === 'asc' ? asc(sortColumns[query.sort]) : desc(sortColumns[query.sort])
   // The page and the total in parallel: two round trips at once instead of one after the other.
   const [rows, [{ total } = { total: 0 }]] = await Promise.all([database.select({
-    id: entries.id, title: entries.title, state: entries.state, version: entries.version,
+    id: entries.id, title: entries.title, state: entryStateSql(), version: entries.version,
     createdAt: entries.createdAt, updatedAt: entries.updatedAt,
     author: { id: people.id, name: people.name },
   }).from(entries).innerJoin(people, eq(people.id, entries.authorId))

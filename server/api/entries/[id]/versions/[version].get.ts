@@ -23,7 +23,7 @@ export default defineEventHandler(async (event) => {
     version: {
       version: version.version, supersedesVersion: version.supersedesVersion, title: version.title, content: version.content,
       record: version.record, recordHash: version.recordHash, frozenAt: version.frozenAt, frozenBy,
-      status: version.version < entry.version ? 'superseded' : entry.state,
+      status: lifecycleVersionStatus(version.version, entry),
     },
     signatures: rows.map(({ signature, key }) => ({
       ...signingEnvelopeOf(signature, key.publicKey),

@@ -27,7 +27,7 @@ export default defineEventHandler(async (event) => {
     versions: versions.map(({ id: versionId, ...version }) => ({
       ...version,
       // A frozen version older than the entry's current one was replaced by an amendment.
-      status: version.version < entry.version ? 'superseded' : entry.state,
+      status: lifecycleVersionStatus(version.version, entry),
       signatures: signed.filter(s => s.entryVersionId === versionId).map(({ entryVersionId: _v, ...s }) => s),
     })),
   }

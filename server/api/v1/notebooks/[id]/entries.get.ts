@@ -13,13 +13,13 @@ export default defineEventHandler(async (event) => {
   await readableNotebook(person, id)
   const conditions: SQL[] = [eq(entries.notebookId, id)]
   if (query.q) conditions.push(ilike(entries.title, `%${query.q.replace(/[\\%_]/g, c => `\\${c}`)}%`))
-  if (query.state) conditions.push(eq(entries.state, query.state))
+  if (query.state) conditions.push(eq(entryStateSql(), query.state))
   if (query.author) conditions.push(eq(entries.authorId, query.author))
   const where = and(...conditions)
-  const sortColumn = { title: entries.title, updatedAt: entries.updatedAt, createdAt: entries.createdAt, state: entries.state, author: people.name }[query.sort]
+  const sortColumn = { title: entries.title, updatedAt: entries.updatedAt, createdAt: entries.createdAt, state: entryStateSql(), author: people.name }[query.sort]
   const database = useDatabase()
   const rows = await database.select({
-    id: entries.id, title: entries.title, state: entries.state, version: entries.version,
+    id: entries.id, title: entries.title, state: entryStateSql(), version: entries.version,
     createdAt: entries.createdAt, updatedAt: entries.updatedAt, author: { id: people.id, name: people.name },
   }).from(entries).innerJoin(people, eq(people.id, entries.authorId)).where(where)
     .orderBy(query.direction === 'asc' ? asc(sortColumn) : desc(sortColumn), desc(entries.id))

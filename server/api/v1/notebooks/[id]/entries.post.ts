@@ -48,5 +48,5 @@ export default defineEventHandler(async (event) => {
     return created!
   })
   setResponseStatus(event, 201)
-  return { entry: { id: entry.id, notebookId: id, title: entry.title, state: entry.state, version: entry.version, content: entry.content } }
+  return { entry: { id: entry.id, notebookId: id, title: entry.title, state: 'draft', version: entry.version, content: entry.content } }
 })

@@ -1,0 +1,2 @@
+ALTER TABLE "entries" DROP COLUMN "state";--> statement-breakpoint
+DROP TYPE "public"."entry_state";
