@@ -9,6 +9,7 @@ import { readFileSync } from 'node:fs'
 import { inflateSync } from 'node:zlib'
 import { formatFingerprint, verifyBundle } from '../shared/records'
 import { BundleExtractionError, readBundleBytes } from '../shared/pdf/extractBundle'
+import { ed25519Verify } from '../server/utils/ed25519'
 
 async function main(): Promise<number> {
   const file = process.argv.slice(2).find(argument => argument !== '--')
@@ -32,7 +33,7 @@ async function main(): Promise<number> {
     console.error(error instanceof BundleExtractionError ? error.message : `cannot read ${file}: ${String(error)}`)
     return 2
   }
-  const report = await verifyBundle(read.bundle)
+  const report = await verifyBundle(read.bundle, { verifyEd25519: ed25519Verify })
   const record = (read.bundle as { record?: { entry?: { id?: string, version?: number, title?: string } } }).record?.entry
   console.log(`File: ${file} (${read.source === 'pdf' ? 'PDF with an embedded bundle' : 'bundle JSON'})`)
   if (record) console.log(`Record: ${record.title ?? ''} — entry ${record.id ?? '?'}, version ${record.version ?? '?'}`)
@@ -43,6 +44,9 @@ async function main(): Promise<number> {
     console.log(`  at ${check.signedAt.replace('T', ' ').replace(/\.\d+Z$|Z$/, '')} UTC, meaning: ${check.meaning}`)
     console.log(`  key ${formatFingerprint(check.keyFingerprint)}`)
   }
+  if (report.calculations)
+    console.log(`Calculations: ${report.calculations.blockCount} recomputed here; ${report.calculations.blocks.length === 0 ? 'all agree within the record tolerance' : `${report.calculations.blocks.length} differ`}`)
+  for (const note of report.notes) console.log(`  note: ${note}`)
   if (report.ok) {
     console.log(`Result: VERIFIED — ${report.signatures.length} signature(s) valid and covering this record.`)
     return 0

@@ -1,5 +1,5 @@
 import { defineStore } from 'pinia'
-import { editorDocumentIssues } from '#shared/editor/validate'
+import { editorDocumentIssues, storageIssues } from '#shared/editor/validate'
 
 /** What the page says about saving, in words. */
 export type SaveStatus = 'saved' | 'unsaved' | 'saving' | 'invalid' | 'conflict' | 'failed'
@@ -22,8 +22,10 @@ export const useEntryStore = defineStore('entry', {
     saving: false,
     /** Set when a save answered 409: the local text is kept until the person reloads. */
     conflict: null as string | null,
-    /** Why the local document cannot be stored yet (an invalid block field), if so. */
+    /** Why the local document cannot be stored yet (its shape, or no title), if so. */
     invalidReason: null as string | null,
+    /** Blocks whose input does not compute yet: stored as they are, refused only at signing. */
+    incompleteBlocks: [] as string[],
     /** A save failed for another reason (network, server). */
     failure: null as string | null,
     lastSavedAt: null as Date | null,
@@ -65,7 +67,9 @@ export const useEntryStore = defineStore('entry', {
         scheduleSave(this)
         return false
       }
-      const issues = this.content ? editorDocumentIssues(this.content, 1) : []
+      const all = this.content ? editorDocumentIssues(this.content, 200) : []
+      this.incompleteBlocks = [...new Set(all.filter(issue => issue.incomplete).map(issue => issue.message))]
+      const issues = storageIssues(all)
       if (!this.title.trim()) issues.unshift({ path: 'title', message: 'the entry needs a title' })
       if (issues.length > 0) {
         this.invalidReason = issues[0]!.message

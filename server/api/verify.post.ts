@@ -25,7 +25,7 @@ export default defineEventHandler(async (event) => {
   await requirePerson(event)
   const bytes = await uploadedBytes(event)
   const { source, bundle } = bundleFromUpload(bytes)
-  const report = await verifyBundle(bundle)
+  const report = await verifyBundle(bundle, { verifyEd25519: ed25519Verify })
   const entry = (bundle as { record?: { entry?: { id?: unknown, version?: unknown, title?: unknown, notebook?: { name?: unknown } } } } | null)?.record?.entry
   const summary = entry && typeof entry === 'object'
     ? { entryId: String(entry.id ?? ''), version: Number(entry.version ?? 0), title: String(entry.title ?? ''), notebook: String(entry.notebook?.name ?? '') }

@@ -1,4 +1,5 @@
 import { createPublicKey, verify, type KeyObject } from 'node:crypto'
+import { strictEd25519 } from '../../shared/records/ed25519'
 
 // Node's built-in Ed25519 (OpenSSL) verifies about 10 times faster than tweetnacl's pure
 // JavaScript (see tests/bench/signing.ts and tests/unit/signing/ed25519.test.ts, which checks
@@ -21,11 +22,8 @@ export function ed25519PublicKeyObject(publicKey: Uint8Array): KeyObject {
   return key
 }
 
-/**
- * Ed25519 (RFC 8032 §5.1.7) verification of a detached signature with node:crypto. Never
- * throws: a malformed key or signature is simply false.
- */
-export function ed25519Verify(message: Uint8Array, signature: Uint8Array, publicKey: Uint8Array): boolean {
+/** Raw Ed25519 verification of a detached signature with node:crypto. Never throws. */
+function nodeEd25519Verify(message: Uint8Array, signature: Uint8Array, publicKey: Uint8Array): boolean {
   if (signature.length !== 64 || publicKey.length !== 32) return false
   try {
     return verify(null, message, ed25519PublicKeyObject(publicKey), signature)
@@ -33,3 +31,9 @@ export function ed25519Verify(message: Uint8Array, signature: Uint8Array, public
     return false
   }
 }
+
+/**
+ * Strict Ed25519 (RFC 8032 §5.1.7) verification on the server and in the CLI: the shared strict
+ * rules (S < L, no small-order key; shared/records/ed25519.ts) around node:crypto.
+ */
+export const ed25519Verify = strictEd25519(nodeEd25519Verify)

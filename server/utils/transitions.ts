@@ -115,7 +115,7 @@ export async function transitionRequestWitness(person: SessionPerson, entryId: s
 }
 
 /** A witness's countersignature ("read and understood"), naming the author's statement by its hash. */
-export async function transitionCountersign(person: SessionPerson, entryId: string, envelope: SignatureEnvelope) {
+export async function transitionCountersign(person: SessionPerson, entryId: string, envelope: SignatureEnvelope, acknowledgedDifferences?: string[]) {
   const entry = await lifecycleAllowed(person, entryId, 'countersign')
   const database = useDatabase()
   const { key, challenge } = await signingCheckEnvelope(database, person, entry.id, 'witnessed', envelope)
@@ -148,7 +148,7 @@ export async function transitionCountersign(person: SessionPerson, entryId: stri
       ))
       await recordAudit(database, {
         action: 'entry_witnessed', actorId: person.id, actorEmail: person.email, subjectType: 'entry', subjectId: current.id,
-        details: { version: current.version, title: current.title, recordHash: version.recordHash, signatureId: signature!.id, statementHash: signedHash, countersigns: authored!.id, keyFingerprint: key.fingerprint },
+        details: { version: current.version, title: current.title, recordHash: version.recordHash, signatureId: signature!.id, statementHash: signedHash, countersigns: authored!.id, keyFingerprint: key.fingerprint, ...(acknowledgedDifferences?.length ? { acknowledgedDifferences } : {}) },
       }, tx)
       return { entry: { ...updated!, state: 'witnessed' as const }, signature: signature!, statementHash: signedHash, countersigns: authored!.id }
     })

@@ -16,6 +16,12 @@ export interface DocumentIssue {
   blockTitle?: string
   /** The block's field concerned (`input.levels[1].energy`, `title`, ...). */
   field?: string
+  /**
+   * True for a block whose input does not compute yet (a temperature without its unit, a new
+   * empty block): a draft is saved as it is, with the block marked; only signing refuses it.
+   * Every other issue is the document's shape and is refused on saving.
+   */
+  incomplete?: boolean
 }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
@@ -36,8 +42,9 @@ export function describeBlock(title: unknown, blockId: unknown): string {
 }
 
 /**
- * Lists every problem of an editor document, at most `limit`. An empty list means the document
- * may be stored. Block inputs are evaluated with the engine, so a stored block always computes.
+ * Lists every problem of an editor document, at most `limit`. Issues marked `incomplete` are
+ * block inputs that do not compute yet: the draft is stored with them (nothing typed is lost)
+ * and signing refuses them; any other issue means the document may not be stored.
  */
 export function editorDocumentIssues(document: unknown, limit = 20): DocumentIssue[] {
   const issues: DocumentIssue[] = []
@@ -67,12 +74,13 @@ export function editorDocumentIssues(document: unknown, limit = 20): DocumentIss
     const attrs = isRecord(node.attrs) ? node.attrs : {}
     const { blockId, kind, title, input, collapsed } = attrs
     const name = describeBlock(title, blockId)
-    const blockIssue = (field: string, message: string) => add({
+    const blockIssue = (field: string, message: string, incomplete = false) => add({
       path: join(path, `attrs.${field}`),
       message: `${name}: ${field}: ${message}`,
       ...(typeof blockId === 'string' ? { blockId } : {}),
       ...(typeof title === 'string' ? { blockTitle: title } : {}),
       field,
+      ...(incomplete ? { incomplete: true } : {}),
     })
     if (blocks > MAX_CALCULATION_BLOCKS) return blockIssue('kind', `an entry holds at most ${MAX_CALCULATION_BLOCKS} calculation blocks`)
     if (node.content !== undefined || node.marks !== undefined) blockIssue('content', 'a calculation block holds no text or marks')
@@ -93,7 +101,7 @@ export function editorDocumentIssues(document: unknown, limit = 20): DocumentIss
     }
     catch (error) {
       if (!(error instanceof EngineInputError)) throw error
-      for (const issue of error.issues) blockIssue(issue.path ? `input.${issue.path}` : 'input', issue.message)
+      for (const issue of error.issues) blockIssue(issue.path ? `input.${issue.path}` : 'input', issue.message, true)
     }
   }
 
@@ -142,4 +150,9 @@ export function editorDocumentIssues(document: unknown, limit = 20): DocumentIss
   if (!isRecord(document) || document.type !== 'doc') return [{ path: '', message: "expected an editor document of type 'doc'" }]
   walk(document, '', 0, null)
   return issues
+}
+
+/** The issues that stop a draft from being stored (its shape), leaving out incomplete block inputs. */
+export function storageIssues(issues: readonly DocumentIssue[]): DocumentIssue[] {
+  return issues.filter(issue => !issue.incomplete)
 }

@@ -127,34 +127,3 @@ export function buildEntryRecord({ entry, notebook, attachments }: EntryRecordSo
     calculations: calculationsFromContent(entry.content),
   })
 }
-
-/** A calculation whose browser recomputation differs from the recorded one. */
-export interface CalculationDifference {
-  blockId: string
-  kind: string
-  /** 'result' when the numbers differ, 'engineVersion' when only the engine changed, 'error' when it no longer computes. */
-  what: 'result' | 'engineVersion' | 'error'
-  message: string
-}
-
-/**
- * Recomputes every calculation of a recorded version with this engine and lists the ones that
- * differ, comparing canonical JSON (exact: the same engine on the same input gives the same bits).
- */
-export function recomputeCalculations(record: RecordDocument): CalculationDifference[] {
-  const differences: CalculationDifference[] = []
-  for (const calculation of record.calculations) {
-    try {
-      const again = evaluate({ kind: calculation.kind, input: calculation.input })
-      const result = JSON.parse(JSON.stringify(again.result))
-      if (canonicalJson(result) !== canonicalJson(calculation.result)) {
-        differences.push({ blockId: calculation.blockId, kind: calculation.kind, what: 'result', message: `recomputed with ${again.engineVersion}, the result differs from the one recorded with ${calculation.engineVersion}` })
-      } else if (again.engineVersion !== calculation.engineVersion) {
-        differences.push({ blockId: calculation.blockId, kind: calculation.kind, what: 'engineVersion', message: `the same result, but recorded with ${calculation.engineVersion} and recomputed with ${again.engineVersion}` })
-      }
-    } catch (error) {
-      differences.push({ blockId: calculation.blockId, kind: calculation.kind, what: 'error', message: `it no longer computes: ${error instanceof Error ? error.message : String(error)}` })
-    }
-  }
-  return differences
-}

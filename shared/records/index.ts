@@ -21,5 +21,13 @@ export * from './schema'
 export { signStatement, statementBytes, verifySignature } from './signing'
 export { verifyBundle } from './verify'
 export type { SignatureCheck, VerificationReport } from './verify'
-export { CalculationBlockError, buildEntryRecord, calculationBlocksOf, calculationsFromContent, recomputeCalculations } from './entryRecord'
-export type { CalculationBlockProblem, CalculationDifference, EntryRecordSource } from './entryRecord'
+export { CalculationBlockError, buildEntryRecord, calculationBlocksOf, calculationsFromContent } from './entryRecord'
+export type { CalculationBlockProblem, EntryRecordSource } from './entryRecord'
+export { ed25519StrictProblem, strictEd25519, strictEd25519Verify } from './ed25519'
+export type { Ed25519Verify } from './ed25519'
+export type { VerifyOptions } from './verify'
+export {
+  RECORD_TOLERANCE, RECORD_TOLERANCE_WORDS, compareOfferedRecord, compareResults, describeQuantityDifference, numbersAgree, pathWords,
+  recheckRecord, recheckSummary, relativeDifference, warningsAgree,
+} from './recheck'
+export type { BlockDifference, DescribeQuantity, QuantityDifference, RecheckAudience, RecheckSummary, RecordComparison, ResultPath } from './recheck'

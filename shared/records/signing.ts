@@ -2,6 +2,7 @@ import nacl from 'tweetnacl'
 import { canonicalJson } from './canonical'
 import { base64ToBytes, bytesToBase64, utf8Bytes } from './encoding'
 import { keyFingerprint, publicKeyOf } from './keys'
+import { strictEd25519Verify, type Ed25519Verify } from './ed25519'
 import { SignatureEnvelopeSchema, SigningStatementSchema, parseOrThrow } from './schema'
 import type { SignatureEnvelope, SigningStatement } from './schema'
 
@@ -28,15 +29,16 @@ export async function signStatement(statement: SigningStatement, secretKey: Uint
 
 /**
  * Synchronous: true only when envelope.signature is a valid Ed25519 signature by
- * envelope.publicKey over canonicalJson(envelope.statement). It does not ask whose key that
- * is, whether it was retired, or what record it covers — verifyBundle does. Never throws;
- * anything malformed is simply false.
+ * envelope.publicKey over canonicalJson(envelope.statement), under the strict rules of
+ * shared/records/ed25519.ts (`verify` is that strict verifier, node:crypto-backed on the
+ * server). It does not ask whose key that is, whether it was retired, or what record it
+ * covers — verifyBundle does. Never throws; anything malformed is simply false.
  */
-export function verifySignature(envelope: SignatureEnvelope): boolean {
+export function verifySignature(envelope: SignatureEnvelope, verify: Ed25519Verify = strictEd25519Verify): boolean {
   const parsed = SignatureEnvelopeSchema.safeParse(envelope)
   if (!parsed.success) return false
   try {
-    return nacl.sign.detached.verify(
+    return verify(
       statementBytes(parsed.data.statement),
       base64ToBytes(parsed.data.signature),
       base64ToBytes(parsed.data.publicKey),

@@ -3,6 +3,8 @@ import { recordHash, statementHash } from './hash'
 import { formatFingerprint, keyFingerprint } from './keys'
 import { RecordBundleSchema, RecordDocumentSchema, describeIssues } from './schema'
 import type { Person, RecordBundle, SignatureEnvelope, SigningMeaning } from './schema'
+import { ed25519StrictProblem, strictEd25519, strictEd25519Verify, type Ed25519Verify } from './ed25519'
+import { recheckRecord, type DescribeQuantity, type RecordComparison } from './recheck'
 import { verifySignature } from './signing'
 
 export interface SignatureCheck {
@@ -17,12 +19,26 @@ export interface SignatureCheck {
 }
 
 export interface VerificationReport {
-  /** True only when the shape is valid, the hash matches, and there is at least one signature and every one is sound. */
+  /**
+   * True only when the shape is valid, the hash matches, there is at least one signature and
+   * every one is sound, and every calculation recomputed here agrees within the record tolerance.
+   */
   ok: boolean
   recordHash: { stated: string | null; computed: string | null; ok: boolean }
   signatures: SignatureCheck[]
+  /** The calculations recomputed with this engine and compared within the record tolerance (null when the bundle is unreadable). */
+  calculations: RecordComparison | null
   /** Every problem in plain words: the bundle's own, then each signature's, prefixed with which. */
   problems: string[]
+  /** What was not checked and why (a block recorded with another engine version is not recomputed). */
+  notes: string[]
+}
+
+export interface VerifyOptions {
+  /** The raw Ed25519 check, wrapped in the strict rules by the caller: node:crypto on the server and CLI; the default is the browser's. */
+  verifyEd25519?: Ed25519Verify
+  /** Names a result quantity in words for the calculation differences. */
+  describeQuantity?: DescribeQuantity
 }
 
 const time = (iso: string) => Date.parse(iso)
@@ -33,20 +49,23 @@ const time = (iso: string) => Date.parse(iso)
  * covers, the key's fingerprint, listing, owner and lifetime, and that a witness countersigns
  * an authored signature by someone else. Never throws: anything wrong becomes a problem.
  */
-export async function verifyBundle(bundle: unknown): Promise<VerificationReport> {
+export async function verifyBundle(bundle: unknown, options: VerifyOptions = {}): Promise<VerificationReport> {
   try {
-    return await verifyParsedBundle(bundle)
+    return await verifyParsedBundle(bundle, options)
   } catch (error) {
     return {
       ok: false,
       recordHash: { stated: null, computed: null, ok: false },
       signatures: [],
+      calculations: null,
       problems: [`verification could not finish: ${error instanceof Error ? error.message : String(error)}`],
+      notes: [],
     }
   }
 }
 
-async function verifyParsedBundle(input: unknown): Promise<VerificationReport> {
+async function verifyParsedBundle(input: unknown, options: VerifyOptions): Promise<VerificationReport> {
+  const verify = options.verifyEd25519 ?? strictEd25519Verify
   const parsed = RecordBundleSchema.safeParse(input)
   if (!parsed.success) return await shapeFailure(input, describeIssues(parsed.error.issues, 'bundle'))
   const bundle = parsed.data
@@ -69,7 +88,7 @@ async function verifyParsedBundle(input: unknown): Promise<VerificationReport> {
   if (bundle.signatures.length === 0) problems.push('the bundle carries no signatures, so nothing vouches for the record')
 
   // First pass: what each signature proves on its own; the second pass relates witnesses to authors.
-  const checks = await Promise.all(bundle.signatures.map((envelope, index) => checkSignature(bundle, envelope, index, computed)))
+  const checks = await Promise.all(bundle.signatures.map((envelope, index) => checkSignature(bundle, envelope, index, computed, verify)))
   const hashes = await Promise.all(bundle.signatures.map((envelope) => statementHash(envelope.statement)))
   const standsAlone = checks.map((check) => check.problems.length === 0)
   for (const check of checks) checkCountersignature(bundle, check, hashes, standsAlone)
@@ -79,11 +98,21 @@ async function verifyParsedBundle(input: unknown): Promise<VerificationReport> {
     const label = `signatures[${check.index}] (${check.signer.name}, ${check.meaning})`
     for (const problem of check.problems) problems.push(`${label}: ${problem}`)
   }
+
+  // The numbers: recomputed here and compared within the record tolerance (shared/records/recheck.ts).
+  const calculations = recheckRecord(bundle.record, options.describeQuantity)
+  const notes: string[] = []
+  for (const block of calculations.blocks) {
+    if (block.what === 'engine') notes.push(block.message)
+    else problems.push(`calculations: ${block.message}`)
+  }
   return {
     ok: problems.length === 0,
     recordHash: { stated: bundle.recordHash, computed, ok: hashOk },
     signatures: checks,
+    calculations,
     problems,
+    notes,
   }
 }
 
@@ -97,7 +126,9 @@ async function shapeFailure(input: unknown, problems: string[]): Promise<Verific
     ok: false,
     recordHash: { stated, computed, ok: stated !== null && stated === computed },
     signatures: [],
+    calculations: null,
     problems: ['this is not a valid Thermotome record bundle', ...problems],
+    notes: [],
   }
 }
 
@@ -106,11 +137,16 @@ async function checkSignature(
   envelope: SignatureEnvelope,
   index: number,
   computedRecordHash: string,
+  verify: Ed25519Verify,
 ): Promise<SignatureCheck> {
   const { statement } = envelope
   const problems: string[] = []
 
-  if (!verifySignature(envelope)) {
+  const strictProblem = ed25519StrictProblem(base64ToBytes(envelope.signature), base64ToBytes(envelope.publicKey))
+  if (strictProblem !== null) {
+    problems.push(`the signature is refused: ${strictProblem}`)
+  }
+  else if (!verifySignature(envelope, strictEd25519(verify))) {
     problems.push('the signature does not match the statement: the statement was altered after signing, or it was signed with another key')
   }
   if (statement.recordHash !== computedRecordHash) {

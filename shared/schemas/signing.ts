@@ -3,11 +3,12 @@ import { SealedKeySchema, SignatureEnvelopeSchema } from '../records/schema'
 
 /**
  * What a signer declares, in our own words. The text is part of the signed statement, so the
- * server accepts exactly these texts for each meaning; changing one is a new statement schema.
+ * server accepts exactly these texts on arrival (older signatures keep the text they signed).
+ * Both name the record tolerance (shared/records/recheck.ts, RECORD_TOLERANCE).
  */
 export const STATEMENT_TEXTS = {
-  authored: 'I wrote this record. To the best of my knowledge it is accurate and complete.',
-  witnessed: 'I have read this record and I understand it.',
+  authored: 'I wrote this record. To the best of my knowledge it is accurate and complete. Its calculation results are the server\'s, which my browser recomputed and found equal within a relative 1e-9 (values near zero within 1e-12 of the largest value of the same quantity in the block).',
+  witnessed: 'I have read this record and I understand it. Its calculation results are the server\'s, which my browser recomputed and compared within a relative 1e-9 (values near zero within 1e-12 of the largest value of the same quantity in the block).',
 } as const
 export type SigningRouteMeaning = keyof typeof STATEMENT_TEXTS
 
@@ -26,6 +27,11 @@ export const challengeBodySchema = z.object({
 
 export const signBodySchema = z.object({
   envelope: SignatureEnvelopeSchema,
+  /**
+   * A witness who countersigns although the browser's recomputation differs from the record
+   * beyond the record tolerance says so: the differences as shown, kept in the audit event.
+   */
+  acknowledgedDifferences: z.array(z.string().max(2000, 'at most 2000 characters'), { error: 'expected a list of texts' }).max(100, 'at most 100 differences').optional(),
 })
 
 export const registerKeyBodySchema = z.object({

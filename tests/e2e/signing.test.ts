@@ -65,7 +65,7 @@ describe('signing in the browser', () => {
     await author.getByRole('button', { name: 'Sign this version' }).click()
     const dialog = author.getByRole('dialog')
     await dialog.getByTestId('statement-text').waitFor()
-    expect(await dialog.getByText('(matches this page)').isVisible()).toBe(true)
+    expect(await dialog.getByText(/recomputed on this page/).isVisible()).toBe(true)
 
     // A wrong passphrase is caught in the browser; nothing is posted.
     const posted: string[] = []

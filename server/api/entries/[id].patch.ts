@@ -13,8 +13,7 @@ export default defineEventHandler(async (event) => {
   const entry = await readableEntry(person, id)
   lifecycleRequireEditor(person, entry)
   // The deep check evaluates every block with the engine: only for the author's own draft.
-  if (body.content !== undefined)
-    assertEditorDocumentValid(body.content)
+  const incompleteBlocks = body.content !== undefined ? assertEditorDocumentValid(body.content) : []
 
   const database = useDatabase()
   const updated = await database.transaction(async (tx) => {
@@ -39,5 +38,5 @@ export default defineEventHandler(async (event) => {
       data: { currentLockVersion: entry.lockVersion },
     })
   }
-  return { entry: updated }
+  return { entry: updated, incompleteBlocks }
 })

@@ -5,6 +5,7 @@ import {
   buildBundle,
   buildRecord,
   bytesToBase64,
+  calculationsFromContent,
   generateSigningKeyPair,
   keyFingerprint,
   recordHash,
@@ -18,25 +19,25 @@ import type { PublicKeyListing, RecordBundle, RecordDocument, SigningMeaning, Si
 
 // Scenarios from DESIGN.md, "The signed record": author and witness signatures over one record.
 
+// A real record: its calculation is the engine's for the block in its content, as the one
+// verifier recomputes it (shared/records/recheck.ts).
+const content = {
+  type: 'doc',
+  content: [
+    { type: 'paragraph', content: [{ type: 'text', text: 'Two-level check, demo values.' }] },
+    { type: 'calculationBlock', attrs: { blockId: 'block-1', kind: 'levels', title: 'Two levels', collapsed: false, input: { temperature: '300 K', levels: [{ energy: '0 cm^-1' }, { energy: '200 cm^-1', degeneracy: 2 }] } } },
+  ],
+}
 const record = buildRecord({
   entry: {
     id: 'entry-1',
-    notebook: { id: 'notebook-1', name: 'Iodine spectra' },
+    notebook: { id: 'notebook-1', name: 'Demo spectra' },
     version: 1,
     supersedes: null,
-    title: 'Rotational populations of I₂ at 300 K',
-    content: { type: 'doc', content: [{ type: 'paragraph', content: [{ type: 'text', text: 'B = 0.0373 cm⁻¹' }] }] },
+    title: 'Two-level populations at 300 K',
+    content: content as unknown as Record<string, never>,
   },
-  calculations: [
-    {
-      blockId: 'block-1',
-      kind: 'rotational-populations',
-      input: { temperature: { value: 300, unit: 'K' }, rotationalConstant: { value: 0.0373, unit: 'cm-1' } },
-      result: { mostPopulatedJ: 52 },
-      engineVersion: '1.0.0',
-      warnings: [],
-    },
-  ],
+  calculations: calculationsFromContent(content),
 })
 
 async function makeSigner(id: string, name: string, { createdAt = '2025-01-01T00:00:00.000Z', retiredAt = null as string | null } = {}) {

@@ -4,7 +4,7 @@ import {
   buildEntryRecord,
   calculationsFromContent,
   canonicalJson,
-  recomputeCalculations,
+  recheckRecord,
   recordHash,
 } from '#shared/records'
 import { evaluate, listKinds } from '#shared/thermo'
@@ -100,14 +100,16 @@ describe('buildEntryRecord', () => {
     expect(await recordHash(buildEntryRecord(retitled))).not.toBe(base)
   })
 
-  it('recomputeCalculations finds a recorded result that differs from the engine', () => {
+  it('recheckRecord finds a recorded result that differs from the engine, naming the block and quantity', () => {
     const record = buildEntryRecord(source({ type: 'doc', content: [block('b1', 'levels', twoLevels)] }))
-    expect(recomputeCalculations(record)).toEqual([])
+    expect(recheckRecord(record).blocks).toEqual([])
     const altered = structuredClone(record)
     ;(altered.calculations[0]!.result as { partitionFunction?: number }).partitionFunction = 99
-    const differences = recomputeCalculations(altered)
-    expect(differences).toHaveLength(1)
-    expect(differences[0]).toMatchObject({ blockId: 'b1', what: 'result' })
+    const { blocks } = recheckRecord(altered)
+    expect(blocks).toHaveLength(1)
+    expect(blocks[0]).toMatchObject({ blockId: 'b1', title: 'Block b1', what: 'value', quantityCount: 1 })
+    expect(blocks[0]!.quantities[0]).toMatchObject({ path: ['partitionFunction'], recorded: 99 })
+    expect(blocks[0]!.message).toMatch(/“Block b1”: partitionFunction: recorded 99, recomputed here 1\.\d+ \(relative difference 9\.\d+e-1\)/)
   })
 })
 
@@ -119,6 +121,6 @@ describe('a level table in a record', () => {
     expect(Array.isArray(result.levelTable.fractions)).toBe(true)
     expect((result.levelTable.fractions as number[]).reduce((sum, value) => sum + value, 0)).toBeCloseTo(1, 14)
     const record = buildEntryRecord(source({ type: 'doc', content: [block('t1', 'levels', tableInput)] }))
-    expect(recomputeCalculations(record)).toEqual([])
+    expect(recheckRecord(record).agrees).toBe(true)
   })
 })

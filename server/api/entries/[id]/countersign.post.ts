@@ -11,8 +11,8 @@ const paramsSchema = z.object({ id: uuidSchema })
 export default defineEventHandler(async (event) => {
   const person = await requireRole(event, 'witness')
   const { id } = await validParams(event, paramsSchema)
-  const { envelope } = await validBody(event, signBodySchema)
-  const outcome = await transitionCountersign(person, id, envelope)
+  const { envelope, acknowledgedDifferences } = await validBody(event, signBodySchema)
+  const outcome = await transitionCountersign(person, id, envelope, acknowledgedDifferences)
   setResponseStatus(event, 201)
   return {
     entry: { id: outcome.entry.id, state: outcome.entry.state, version: outcome.entry.version, lockVersion: outcome.entry.lockVersion },
