@@ -5,3 +5,7 @@
  */
 export { describeResultQuantity, resultQuantityAt, parseResultPath, pathText, type ResultPath } from './describe'
 export { RESULT_QUANTITIES, type Quantity, type QuantityGroup, type QuantityList } from './quantities'
+export { presentResult, LEVEL_TABLE_ROWS_SHOWN, LEVEL_TABLE_CHART_LIMIT } from './result'
+export { presentInputs } from './inputs'
+export { formatSignificant, formatWithUncertainty, formatFromLog10, formatInteger, significantFigures, DEFAULT_SIGNIFICANT_FIGURES } from './numbers'
+export { columnHeader, type Presentation, type PresentedRow, type PresentedSection, type PresentedTable, type PresentedColumn, type PresentedChart, type PresentPreferences } from './types'

@@ -1,0 +1,90 @@
+// The record PDF of a realistic entry with one block of every kind, read back as text with
+// poppler's pdftotext (Debian's poppler-utils): it must say what each number is, in words and
+// units, and never print the engine's field names.
+import { execFileSync } from 'node:child_process'
+import { mkdtempSync, writeFileSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { beforeAll, describe, expect, it } from 'vitest'
+import { verifyBundle } from '../../../shared/records'
+import { evaluate, listKinds } from '../../../shared/thermo'
+import { presentResult } from '../../../shared/present'
+import { renderRecordPdfBytes, setupPdfFonts } from '../../../server/pdf/render'
+import { pdfFontFilesFromNodeModules } from '../../support/pdfFonts'
+import { fixtureKey, signedBundle } from '../../support/signedRecords'
+
+const folder = mkdtempSync(join(tmpdir(), 'thermotome-pdf-'))
+
+/** pdftotext output with soft hyphens, zero-width spaces and line breaks inside words removed. */
+function pdfText(pdf: Uint8Array, name: string, options: string[] = []): string {
+  const file = join(folder, `${name}.pdf`)
+  writeFileSync(file, pdf)
+  return execFileSync('pdftotext', [...options, file, '-'], { encoding: 'utf8' })
+}
+const squash = (text: string) => text.replace(/\u200B/g, '').replace(/\s+/g, ' ')
+
+/** camelCase names of every input and result field of a kind (as an auditor would never want to read them). */
+function fieldNames(value: unknown, names = new Set<string>()): Set<string> {
+  if (value !== null && typeof value === 'object') {
+    const list = typeof (value as { length?: unknown }).length === 'number'
+    if (list) { if ((value as ArrayLike<unknown>).length) fieldNames((value as ArrayLike<unknown>)[0], names) }
+    else for (const [key, inner] of Object.entries(value)) { if (/[a-z][A-Z]/.test(key)) names.add(key); fieldNames(inner, names) }
+  }
+  return names
+}
+
+const vibrationInput = { modes: [{ label: 'symmetric stretch', wavenumber: '3657 cm^-1' }, { label: 'bend', wavenumber: '1595 cm^-1' }, { label: 'antisymmetric stretch', wavenumber: '3756 cm^-1' }], temperature: '1500 K' }
+
+describe('record PDF of an entry with a block of every kind', () => {
+  let text = ''
+  let blocks: { kind: string, title: string, input: unknown }[] = []
+  beforeAll(async () => {
+    setupPdfFonts(pdfFontFilesFromNodeModules())
+    blocks = listKinds().map(kind => ({ kind: kind.kind, title: `${kind.title} (Kestrel Ridge check)`, input: kind.kind === 'vibration' ? vibrationInput : kind.exampleInput }))
+    const made = await signedBundle({
+      entryId: '7b2c1d0e-9f8a-4b7c-8d6e-5f4a3b2c1d0e', notebook: { id: 'n1', name: 'Kestrel Ridge — gas cell survey' }, title: 'Populations across the survey',
+      author: { id: 'a1', name: 'Dr Amara Lindqvist', email: 'amara@example.test' }, authorKey: await fixtureKey(),
+      blocks,
+    })
+    const pdf = await renderRecordPdfBytes({ bundle: made.bundle, state: 'awaiting_witness', auditEvents: [], verification: await verifyBundle(made.bundle) })
+    writeFileSync(join(folder, 'every-kind.pdf'), pdf)
+    text = squash(pdfText(pdf, 'every-kind'))
+  }, 90_000)
+
+  it('prints the label and the unit of every presented row of every block', () => {
+    for (const block of blocks) {
+      const { result, warnings } = evaluate({ kind: block.kind, input: block.input })
+      const presented = presentResult(block.kind, block.input, result, {}, warnings)
+      for (const section of presented.sections) {
+        for (const row of section.rows) {
+          expect(text, `${block.kind}: ${row.label}`).toContain(squash(row.label))
+          if (row.unit) expect(text, `${block.kind}: unit of ${row.label}`).toContain(`${squash(row.label)}`)
+        }
+      }
+      // The model's opening words (its formulas' superscripts print as raised digits).
+      expect(text, block.kind).toContain(squash(presented.model).slice(0, 24))
+    }
+    for (const unit of ['J/(mol·K)', 'J/mol', 'K', 'T', 'Hz', 'Pa']) expect(text).toContain(` ${unit} `)
+  })
+
+  it('prints none of the engine’s input or result field names', () => {
+    for (const block of blocks) {
+      const { result } = evaluate({ kind: block.kind, input: block.input })
+      for (const name of fieldNames({ input: block.input, result })) expect(text, `${block.kind}: ${name}`).not.toContain(name)
+    }
+  })
+
+  it('shows every mode of the vibration block with its own ladder', () => {
+    for (const name of ['symmetric stretch', 'bend', 'antisymmetric stretch']) {
+      expect(text).toContain(`Vibrational ladder of mode`)
+      expect(text).toContain(`(${name})`)
+    }
+    expect(text.match(/Vibrational ladder of mode \d/g)?.length).toBeGreaterThanOrEqual(3)
+  })
+
+  it('prints inputs as typed, beside the SI value used', () => {
+    expect(text).toContain('3657 cm^-1')
+    expect(text).toContain('1500 K')
+    expect(text).toContain('1.9225 cm^-1')
+  })
+})
