@@ -88,3 +88,29 @@ describe('record PDF of an entry with a block of every kind', () => {
     expect(text).toContain('1.9225 cm^-1')
   })
 })
+
+describe('record PDF audit table', () => {
+  it('keeps 60-character names and 300-character reasons inside the A4 margins (word boxes from pdftotext -bbox)', async () => {
+    setupPdfFonts(pdfFontFilesFromNodeModules())
+    const made = await signedBundle({
+      entryId: '8c3d2e1f-0a9b-4c8d-9e7f-6a5b4c3d2e1f', notebook: { id: 'n1', name: 'Kestrel Ridge — audit layout' }, title: 'Audit layout check',
+      author: { id: 'a1', name: 'Dr Amara Lindqvist', email: 'amara@example.test' }, authorKey: await fixtureKey(),
+    })
+    const longName = 'Maximiliana Evangelina Bartholomäus-Wojciechowska-Featherstone'.slice(0, 60)
+    const reason = `${'The witness could not confirm the calibration of the cell pressure gauge against the reference standard. '.repeat(3)}`.slice(0, 300)
+    const auditEvents = Array.from({ length: 6 }, (_, index) => ({
+      sequence: 1000 + index, occurredAt: '2026-03-02T10:15:30.000Z', action: index % 2 ? 'entry_declined' : 'record_verified_with_a_long_action_code',
+      actorEmail: `${'a'.repeat(40)}.${'b'.repeat(20)}@kestrel-ridge-laboratories.example.test`, actorName: longName,
+      details: { reason, recordHash: 'f'.repeat(64) },
+    }))
+    const pdf = await renderRecordPdfBytes({ bundle: made.bundle, state: 'declined', auditEvents, verification: await verifyBundle(made.bundle) })
+    const boxes = pdfText(pdf, 'audit-layout', ['-bbox'])
+    const right = [...boxes.matchAll(/<word xMin="([\d.]+)" yMin="[\d.]+" xMax="([\d.]+)"/g)].map(match => Number(match[2]))
+    const page = /<page width="([\d.]+)"/.exec(boxes)
+    expect(right.length).toBeGreaterThan(100)
+    // A4 is 595.28 pt wide; the document's margins are 40 pt each side.
+    expect(Number(page![1])).toBeCloseTo(595.28, 0)
+    expect(Math.max(...right)).toBeLessThanOrEqual(595.28 - 40 + 0.5)
+    expect(squash(pdfText(pdf, 'audit-layout-text'))).toContain('Maximiliana')
+  }, 60_000)
+})

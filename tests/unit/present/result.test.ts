@@ -149,3 +149,21 @@ describe('presentResult', () => {
     expect(presentResult('levels', bigInput, big.result).charts).toHaveLength(0)
   })
 })
+
+describe('presentedTableCsv', () => {
+  it('writes units in the header row and full-precision numbers in the cells', async () => {
+    const { presentedTableCsv } = await import('../../../shared/present')
+    const input = { lines: [
+      { label: 'line A, blue', upperEnergy: '1000 cm^-1', degeneracy: 3, intensity: 1.0 },
+      { upperEnergy: '2000 cm^-1', degeneracy: 5, intensity: 0.13 },
+      { upperEnergy: '3000 cm^-1', degeneracy: 7, intensity: 0.017 },
+    ] }
+    const { result } = evaluate({ kind: 'boltzmannPlot', input })
+    const csv = presentedTableCsv(presentResult('boltzmannPlot', input, result).tables[0]!)
+    const [header, first] = csv.split('\r\n')
+    expect(header).toContain('Upper-level energy E_u (cm⁻¹)')
+    expect(header).toContain('Residual y − ŷ')
+    expect(first!.startsWith('"line A, blue",1000')).toBe(true)
+    expect(first).toContain(String(result.points[0].residual))
+  })
+})
