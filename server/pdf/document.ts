@@ -3,10 +3,10 @@
 // same record always gives the same document (and, with fixed metadata, the same bytes).
 import { canonicalJson, formatFingerprint, type Calculation, type RecordBundle, type VerificationReport } from '../../shared/records'
 import { auditActionWords } from '../../shared/audit/actions'
-import { formatNumber } from '../../shared/charts'
+import { columnHeader, presentResult, type PresentedRow, type PresentedTable } from '../../shared/present'
 import type { VersionStatus } from '../../shared/records/lifecycle'
+import { registry } from '../../shared/thermo'
 import { utcText } from '../../shared/time'
-import { pdfChartForCalculation } from './charts'
 import { svgForPdf } from './svg'
 import { textRuns, type TextRun } from './text'
 
@@ -17,6 +17,8 @@ export interface PdfAuditEvent {
   occurredAt: string
   action: string
   actorEmail: string | null
+  /** The person's name at export time (the audit row keeps the e-mail it was written with). */
+  actorName?: string | null
   details: unknown
 }
 
@@ -61,6 +63,17 @@ const PAPER_DEEP = '#f3eee2'
 
 
 type Content = Record<string, unknown> | string | Content[]
+
+const registryTitle = (kind: string) => registry[kind]?.title ?? kind
+
+/**
+ * Long unbroken tokens (hashes, e-mail addresses, ids, long names) get break opportunities
+ * (a zero-width space after every 16 characters, and after @ . / - _ inside them) so a table
+ * cell wraps inside its column instead of running past the page edge.
+ */
+export function breakable(text: string): string {
+  return text.replace(/\S{17,}/g, token => token.replace(/([@./_-])(?=\S)/g, '$1\u200B').split('\u200B').map(piece => piece.replace(/(.{16})(?=.)/g, '$1\u200B')).join('\u200B'))
+}
 type Inline = string | Record<string, unknown>
 
 /** A paragraph-level text node from a plain string, with font runs and sup/sub. */
@@ -190,120 +203,69 @@ function blockNodes(nodes: DocNode[] | undefined, context: BlockContext): Conten
 // ---------------------------------------------------------------------------------------
 // Calculation blocks: title, inputs, results, warnings, chart
 
-function valueText(value: unknown): string {
-  if (value === null || value === undefined) return '—'
-  if (typeof value === 'number') return Number.isFinite(value) ? formatNumber(value, 6) : String(value)
-  if (typeof value === 'string' || typeof value === 'boolean') return String(value)
-  return canonicalJson(value as never)
-}
+/** Rows of a long table printed in the PDF; the bundle and the CSV hold every row. */
+const PDF_TABLE_ROWS = 60
 
-/** Flattens nested input or result objects into "path: value" rows; long lists are summarised. */
-function flatten(value: unknown, prefix: string, rows: [string, string][], limit = 60): void {
-  if (rows.length >= limit) return
-  if (Array.isArray(value)) {
-    if (value.every(item => item === null || typeof item !== 'object')) {
-      const shown = value.slice(0, 12).map(valueText).join(', ')
-      rows.push([prefix, value.length > 12 ? `${shown}, … (${value.length} values)` : shown || '(none)'])
-      return
-    }
-    value.slice(0, 20).forEach((item, index) => flatten(item, `${prefix}[${index}]`, rows, limit))
-    if (value.length > 20) rows.push([prefix, `… ${value.length - 20} more not printed (all are in the attached bundle)`])
-    return
-  }
-  if (value !== null && typeof value === 'object') {
-    for (const [key, inner] of Object.entries(value as Record<string, unknown>)) {
-      if (key === 'units') continue
-      flatten(inner, prefix ? `${prefix}.${key}` : key, rows, limit)
-      if (rows.length >= limit) {
-        rows.push(['…', 'more values are in the attached bundle'])
-        return
-      }
-    }
-    return
-  }
-  rows.push([prefix || 'value', valueText(value)])
-}
-
-function keyValueTable(title: string, rows: [string, string][], units: Record<string, string> = {}): Content {
-  const body: Content[][] = [[{ text: title, style: 'tableHeader', colSpan: 2 }, '']]
-  for (const [key, value] of rows) {
-    const leaf = key.split(/[.[]/)[0] ?? key
-    const unit = units[key] ?? units[leaf]
-    body.push([para(key, { color: INK_SOFT }), para(unit ? `${value} ${unit}` : value)])
-  }
-  return { table: { headerRows: 1, dontBreakRows: true, widths: [170, '*'], body }, layout: 'recordGrid', fontSize: 8.5, margin: [0, 0, 0, 6] }
-}
-
-const LIST_ROWS = 30
-const LIST_COLUMNS = 7
-
-/** An array of objects as a table: one row per item, one column per scalar field. */
-function listTable(title: string, items: Record<string, unknown>[], units: Record<string, string>): Content {
-  const keys: string[] = []
-  for (const item of items.slice(0, LIST_ROWS)) {
-    for (const [key, value] of Object.entries(item)) {
-      if (!keys.includes(key) && (value === null || typeof value !== 'object')) keys.push(key)
-    }
-  }
-  // Identifying columns first (jsonb returns keys in its own order).
-  const leading = ['label', 'J', 'm', 'energy', 'degeneracy']
-  keys.sort((left, right) => (leading.includes(left) ? leading.indexOf(left) : leading.length) - (leading.includes(right) ? leading.indexOf(right) : leading.length))
-  const columns = keys.slice(0, LIST_COLUMNS)
-  const header = columns.map(key => ({ text: textRuns(units[key] ? `${key} (${units[key]})` : key), style: 'tableHeader' }))
+/** A presented table (shared/present) as a pdfmake table that wraps inside the margins. */
+function presentedTable(table: PresentedTable): Content {
+  const shown = table.rows.slice(0, PDF_TABLE_ROWS)
   const body: Content[][] = [
-    [{ text: textRuns(`${title} — ${items.length} ${items.length === 1 ? 'row' : 'rows'}`), style: 'tableHeader', colSpan: columns.length }, ...columns.slice(1).map(() => '')],
-    header,
-    ...items.slice(0, LIST_ROWS).map(item => columns.map(key => para(valueText(item[key])))),
+    [{ text: textRuns(table.caption), style: 'tableHeader', colSpan: table.columns.length }, ...table.columns.slice(1).map(() => '')],
+    table.columns.map(column => ({ text: textRuns(columnHeader(column)), style: 'tableHeader', ...(column.numeric ? { alignment: 'right' } : {}) })),
+    ...shown.map(row => row.map((cell, index) => para(breakable(cell), table.columns[index]?.numeric ? { alignment: 'right' } : {}))),
   ]
   const notes: Content[] = []
-  if (items.length > LIST_ROWS) notes.push(para(`${items.length - LIST_ROWS} more rows are not printed; every row is in the attached bundle.`, { style: 'small' }))
-  if (keys.length > LIST_COLUMNS) notes.push(para(`Also in the bundle: ${keys.slice(LIST_COLUMNS).join(', ')}.`, { style: 'small' }))
-  return { stack: [{ table: { headerRows: 2, widths: columns.map(() => '*'), body }, layout: 'recordGrid', fontSize: 7.5 }, ...notes], margin: [0, 0, 0, 6] }
+  if (table.totalRows > shown.length) notes.push(para(`${(table.totalRows - shown.length).toLocaleString('en-US')} more rows are not printed; every row is in the attached bundle and the calculation's CSV.`, { style: 'small' }))
+  return { stack: [{ table: { headerRows: 2, dontBreakRows: true, widths: table.columns.map(() => '*'), body }, layout: 'recordGrid', fontSize: 7.5 }, ...notes], margin: [0, 0, 0, 6] }
 }
 
-/** Scalars and small objects as "name: value" rows, lists of objects as their own tables. */
-function valuesBlock(title: string, value: unknown, units: Record<string, string> = {}): Content[] {
-  const rows: [string, string][] = []
-  const lists: Content[] = []
-  // Stored records lose key order (PostgreSQL jsonb): print temperature first, then by name, the same every time.
-  const rank = (key: string) => (key === 'temperature' ? 0 : 1)
-  const entries = value !== null && typeof value === 'object' && !Array.isArray(value)
-    ? Object.entries(value as Record<string, unknown>).sort(([left], [right]) => rank(left) - rank(right) || (left < right ? -1 : left > right ? 1 : 0))
-    : [['value', value] as [string, unknown]]
-  for (const [key, inner] of entries) {
-    if (key === 'units') continue
-    if (Array.isArray(inner) && inner.length > 0 && inner.every(item => item !== null && typeof item === 'object' && !Array.isArray(item)))
-      lists.push(listTable(`${title}: ${key}`, inner as Record<string, unknown>[], units))
-    else flatten(inner, key, rows)
-  }
-  return [...(rows.length ? [keyValueTable(title, rows, units)] : []), ...lists]
+function rowsTable(title: string, rows: PresentedRow[], input: boolean): Content {
+  const body: Content[][] = [
+    [{ text: textRuns(title), style: 'tableHeader', colSpan: 3 }, '', ''],
+    ...rows.map(row => input
+      ? [para(breakable(row.label), { color: INK_SOFT }), para(breakable(row.value)), para(row.si ? `= ${row.si}` : '', { color: INK_SOFT })]
+      : [
+          para(`${row.label}${row.symbol ? ` ${row.symbol}` : ''}`, { color: INK_SOFT }),
+          para(breakable(row.uncertainty ? `${row.value} ± ${row.uncertainty}` : row.value), { bold: true, alignment: 'right' }),
+          para(row.unit ?? ''),
+        ]),
+  ]
+  return { table: { dontBreakRows: true, widths: input ? ['*', 150, 120] : ['*', 130, 90], body }, layout: 'recordGrid', fontSize: 8.5, margin: [0, 0, 0, 6] }
 }
 
 function calculationBlock(node: DocNode, context: BlockContext): Content {
   context.blockNumber.value++
   const blockId = String(node.attrs?.blockId ?? '')
   const calculation = context.calculations.get(blockId)
-  const title = String(node.attrs?.title || calculation?.kind || 'Calculation block')
+  const title = String(node.attrs?.title || (calculation ? registryTitle(calculation.kind) : '') || 'Calculation block')
   const heading = para(`Calculation block ${context.blockNumber.value}: ${title}`, { style: 'blockTitle' })
   if (!calculation) {
     return { stack: [heading, para('This block has no computed result in the signed record.', { color: '#9c3a25' })], margin: [0, 4, 0, 10] }
   }
-  const units = (calculation.result && typeof calculation.result === 'object' && !Array.isArray(calculation.result)
-    ? (calculation.result as Record<string, unknown>).units : undefined) as Record<string, string> | undefined
+  const presented = presentResult(calculation.kind, calculation.input, calculation.result, { chartWidth: 640, chartHeight: 300 }, calculation.warnings)
   const parts: Content[] = [
     heading,
-    para(`Kind ${calculation.kind} · engine ${calculation.engineVersion} · block ${calculation.blockId}`, { style: 'small', margin: [0, 0, 0, 4] }),
-    ...valuesBlock('Inputs, as entered', calculation.input),
-    ...valuesBlock('Results, computed by the server', calculation.result, units ?? {}),
+    para(`${presented.title} · engine ${calculation.engineVersion} · block ${calculation.blockId}`, { style: 'small', margin: [0, 0, 0, 2] }),
+    para(`Model: ${presented.model}`, { style: 'small', margin: [0, 0, 0, 4] }),
   ]
-  if (calculation.warnings.length) {
-    parts.push({ stack: [para('Warnings', { bold: true }), { ul: calculation.warnings.map(warning => para(warning)) }], margin: [0, 0, 0, 6], color: '#8a5a2b' })
+  if (presented.inputs.rows.length) parts.push(rowsTable(presented.inputs.title, presented.inputs.rows, true))
+  parts.push(...presented.inputTables.map(presentedTable))
+  for (const section of presented.sections) parts.push(rowsTable(`${section.title}, computed by the server`, section.rows, false))
+  if (presented.warnings.length) {
+    parts.push({ stack: [para('Warnings', { bold: true }), { ul: presented.warnings.map(warning => para(warning)) }], margin: [0, 0, 0, 6], color: '#8a5a2b' })
   }
-  const chart = pdfChartForCalculation(calculation, title)
-  if (chart) {
-    parts.push({ svg: svgForPdf(chart.svg), font: 'Atkinson', width: 470, alignment: 'center', margin: [0, 2, 0, 2], unbreakable: true })
-    parts.push(para(chart.alt, { style: 'small', margin: [0, 0, 0, 4] }))
+  for (const chart of presented.charts) {
+    parts.push({
+      stack: [
+        para(chart.title, { bold: true, fontSize: 9, margin: [0, 2, 0, 0] }),
+        { svg: svgForPdf(chart.svg), font: 'Atkinson', width: 470, alignment: 'center', margin: [0, 2, 0, 2] },
+        para(chart.alt, { style: 'small', margin: [0, 0, 0, 4] }),
+      ],
+      unbreakable: true,
+    })
   }
+  parts.push(...presented.tables.map(presentedTable))
+  parts.push(para(presented.conventions, { style: 'small', margin: [0, 0, 0, 2] }))
   return { stack: parts, margin: [0, 4, 0, 12] }
 }
 
@@ -364,18 +326,23 @@ function detailsText(details: unknown): string {
   if (details === null || typeof details !== 'object') return details === undefined ? '' : String(details)
   const entries = Object.entries(details as Record<string, unknown>)
   const text = entries.map(([key, value]) => `${key}: ${typeof value === 'object' ? JSON.stringify(value) : String(value)}`).join('; ')
-  return text.length > 240 ? `${text.slice(0, 239)}…` : text
+  return text.length > 400 ? `${text.slice(0, 399)}…` : text
 }
 
 function auditBlock(events: PdfAuditEvent[]): Content {
   if (!events.length) return para('No audit events are recorded for this entry.', { style: 'small' })
   return {
     table: {
-      headerRows: 1, widths: [28, 92, 90, 120, '*'],
+      // Fixed columns leave the details column at least 230 pt on A4 and Letter; every cell
+      // breaks long tokens (hashes, addresses) so nothing runs past the margin.
+      headerRows: 1, dontBreakRows: true, widths: [24, 66, 82, 104, '*'],
       body: [
-        ['#', 'Time (UTC)', 'Action', 'By', 'Details'].map(text => ({ text, style: 'tableHeader' })),
+        ['#', 'Time (UTC +00:00)', 'Action', 'By', 'Details'].map(text => ({ text, style: 'tableHeader' })),
         ...events.map(event => [
-          String(event.sequence), utcText(event.occurredAt).replace(' UTC', ''), { stack: [para(auditActionWords(event.action)), para(event.action, { fontSize: 6.5, color: INK_SOFT })] }, para(event.actorEmail ?? 'system'), para(detailsText(event.details)),
+          String(event.sequence), para(utcText(event.occurredAt).replace(' UTC', ' +00:00')),
+          { stack: [para(auditActionWords(event.action)), para(breakable(event.action), { fontSize: 6.5, color: INK_SOFT })] },
+          { stack: [para(breakable(event.actorName ?? (event.actorEmail ? event.actorEmail : 'system'))), ...(event.actorName && event.actorEmail ? [para(breakable(event.actorEmail), { fontSize: 6.5, color: INK_SOFT })] : [])] },
+          para(breakable(detailsText(event.details))),
         ]),
       ],
     },

@@ -1,7 +1,7 @@
 import { and, asc, desc, eq } from 'drizzle-orm'
 import type { RecordBundle } from '#shared/records'
 import type { VersionStatus } from '#shared/records/lifecycle'
-import { auditEvents, entries, entryVersions, type Entry } from '../database/schema'
+import { auditEvents, entries, entryVersions, people, type Entry } from '../database/schema'
 import type { PdfAuditEvent } from '../pdf/document'
 import type { SessionPerson } from './auth'
 import { signingBundleOf } from './recordVerify'
@@ -38,8 +38,8 @@ export async function loadBundleForExport(entryId: string, version?: number): Pr
   const bundle = await signingBundleOf(database, frozen)
   const events = await database.select({
     sequence: auditEvents.sequence, occurredAt: auditEvents.occurredAt, action: auditEvents.action,
-    actorEmail: auditEvents.actorEmail, details: auditEvents.details,
-  }).from(auditEvents).where(and(eq(auditEvents.subjectType, 'entry'), eq(auditEvents.subjectId, entryId)))
+    actorEmail: auditEvents.actorEmail, actorName: people.name, details: auditEvents.details,
+  }).from(auditEvents).leftJoin(people, eq(people.id, auditEvents.actorId)).where(and(eq(auditEvents.subjectType, 'entry'), eq(auditEvents.subjectId, entryId)))
     .orderBy(asc(auditEvents.sequence)).limit(1000)
   return {
     bundle,

@@ -12,7 +12,7 @@ interface Requester extends SessionPerson {
 async function auditRecordExport(person: Requester, record: ExportRecord, action: 'record_exported' | 'record_bundle_downloaded', format: 'pdf' | 'json') {
   await recordAudit(useDatabase(), {
     action, actorId: person.id, actorEmail: person.email, subjectType: 'entry', subjectId: record.entry.id,
-    details: { version: record.version, format, recordHash: record.bundle.recordHash, ...(person.tokenId ? { via: 'api', tokenId: person.tokenId } : {}) },
+    details: { title: record.entry.title, version: record.version, format, recordHash: record.bundle.recordHash, ...(person.tokenId ? { via: 'api', tokenId: person.tokenId } : {}) },
   })
 }
 

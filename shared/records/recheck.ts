@@ -1,3 +1,4 @@
+import { describeResultQuantity } from '../present/describe'
 import { canonicalJson } from './canonical'
 import { calculationBlocksOf, calculationsFromContent, CalculationBlockError } from './entryRecord'
 import type { Calculation, RecordDocument } from './schema'
@@ -163,9 +164,10 @@ export function pathWords(path: ResultPath): string {
   return path.length === 0 ? 'the result' : path.map(step => typeof step === 'number' ? String(step + 1) : step).join(' › ')
 }
 
-/** Names a quantity of a kind's result in words; the presentation module supplies a better one. */
-export type DescribeQuantity = (kind: string, path: ResultPath) => string
-const defaultDescribe: DescribeQuantity = (_kind, path) => pathWords(path)
+/** Names a quantity of a kind's result in words (with its unit): shared/present owns the words. */
+export type DescribeQuantity = (kind: string, path: ResultPath, input?: unknown, result?: unknown) => string
+const defaultDescribe: DescribeQuantity = (kind, path, input, result) =>
+  path[0] === 'warnings' ? 'the warnings' : describeResultQuantity(kind, path, input, result)
 
 function show(value: unknown): string {
   if (typeof value === 'number') return String(value)
@@ -178,10 +180,10 @@ function titleOf(block: Pick<BlockDifference, 'title' | 'position'>): string {
 }
 
 /** One quantity's difference in words: the quantity, both values and the relative difference. */
-export function describeQuantityDifference(kind: string, difference: QuantityDifference, describe: DescribeQuantity = defaultDescribe): string {
+export function describeQuantityDifference(kind: string, difference: QuantityDifference, describe: DescribeQuantity = defaultDescribe, input?: unknown, result?: unknown): string {
   const both = `recorded ${show(difference.recorded)}, recomputed here ${show(difference.recomputed)}`
   const relative = difference.relativeDifference === null ? '' : ` (relative difference ${difference.relativeDifference.toExponential(2)})`
-  return `${describe(kind, difference.path)}: ${both}${relative}`
+  return `${describe(kind, difference.path, input, result)}: ${both}${relative}`
 }
 
 function compareCalculation(recorded: Calculation, again: Calculation, title: string, position: number, describe: DescribeQuantity): BlockDifference | null {
@@ -204,7 +206,7 @@ function compareCalculation(recorded: Calculation, again: Calculation, title: st
   const more = quantities.length > shown.length ? `; and ${quantities.length - shown.length} more` : ''
   return {
     ...base, what: 'value', quantities: shown, quantityCount: quantities.length,
-    message: `${name}: ${shown.map(q => describeQuantityDifference(recorded.kind, q, describe)).join('; ')}${more}`,
+    message: `${name}: ${shown.map(q => describeQuantityDifference(recorded.kind, q, describe, recorded.input, recorded.result)).join('; ')}${more}`,
   }
 }
 

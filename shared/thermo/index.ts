@@ -3,7 +3,7 @@
  * evaluate({kind, input}) → {kind, engineVersion, result, warnings}.
  */
 import { EngineInputError, type InputIssue } from './errors'
-import { registry, type KindDefinition } from './registry'
+import { registry, type KindDefinition, type KindName, type KindResults } from './registry'
 import { issuesFromZod } from './schema'
 import { NumberColumn, isKnownFinite, isResultColumn } from './columns'
 
@@ -25,7 +25,7 @@ export {
   type Quantity,
   type Dimension,
 } from './units'
-export { registry, type KindDefinition } from './registry'
+export { registry, isKindName, type KindDefinition, type KindName, type KindResults, type SweepResult, type SolveTemperatureResult } from './registry'
 export { NUCLEI } from './kinds/spin'
 export { levelPopulations } from './kinds/levels'
 export { NumberColumn, FlagColumn, isResultColumn } from './columns'
@@ -47,10 +47,17 @@ export interface EvaluationRequest {
   input: unknown
 }
 
+/** The result type of a kind named by a literal; unknown for a kind known only as a string. */
+export type ResultOf<Kind extends string> = Kind extends KindName ? KindResults[Kind] : unknown
+
 export interface EvaluationResult {
   kind: string
   /** ENGINE_VERSION and the kind's version, e.g. '1.0.0/levels@1'. */
   engineVersion: string
+  /**
+   * Still untyped: the engine tests read results without narrowing. The type of each kind's
+   * result is ResultOf<kind> (registry.ts); readers outside the tests (shared/present) use it.
+   */
   result: any
   warnings: string[]
 }

@@ -5,7 +5,6 @@
  * (parseFloat plus a cached factor), so long level lists convert without mathjs per level.
  */
 import { all, create } from 'mathjs'
-import { toSuperscript } from '../charts/format'
 import {
   ATOMIC_MASS_CONSTANT,
   AVOGADRO_CONSTANT,
@@ -287,11 +286,13 @@ export function toGyromagneticRatio(text: unknown, path = 'gyromagneticRatio'): 
   return quantity.namesHertz ? quantity.si * 2 * Math.PI : quantity.si
 }
 
+const SUPERSCRIPT_DIGITS: Record<string, string> = { '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹', '-': '⁻' }
+
 /** A number for a warning, to `digits` significant digits, with powers of ten written out (6.022×10²³). */
 export function messageNumber(value: number, digits = 3): string {
   const text = value.toPrecision(digits)
   const match = /^(-?[\d.]+)e([+-]\d+)$/.exec(text)
-  return match ? `${match[1]}×10${toSuperscript(String(Number(match[2])))}` : text
+  return match ? `${match[1]}×10${Array.from(String(Number(match[2])), (character) => SUPERSCRIPT_DIGITS[character] ?? character).join('')}` : text
 }
 
 /** Short human form of a number for messages. */

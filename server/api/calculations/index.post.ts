@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { presentResult } from '#shared/present'
 import { EngineInputError, evaluate } from '#shared/thermo'
 
 const bodySchema = z.object({
@@ -17,7 +18,9 @@ export default defineEventHandler(async (event) => {
   await requirePerson(event)
   const body = await validBody(event, bodySchema)
   try {
-    return evaluate({ kind: body.kind, input: body.input })
+    const evaluation = evaluate({ kind: body.kind, input: body.input })
+    // What a person reads of it, from the one presentation the page and the PDF use.
+    return { ...evaluation, presentation: presentResult(body.kind, body.input, evaluation.result, {}, evaluation.warnings) }
   }
   catch (error) {
     if (error instanceof EngineInputError)

@@ -1,11 +1,13 @@
 import { v1EvaluateSchema } from '#shared/schemas/v1'
+import { presentResult } from '#shared/present'
 import { EngineInputError, evaluate } from '#shared/thermo'
 
 export default defineEventHandler(async (event) => {
   await requireApiToken(event, 'records:read')
   const body = await validBody(event, v1EvaluateSchema)
   try {
-    return evaluate(body)
+    const evaluation = evaluate(body)
+    return { ...evaluation, presentation: presentResult(body.kind, body.input, evaluation.result, {}, evaluation.warnings) }
   }
   catch (error) {
     if (error instanceof EngineInputError)

@@ -4,7 +4,7 @@ import { issuesOutsideFields } from '../../../shared/editor/blockForms'
 import {
   LEVEL_ROWS_EDITABLE_MAX, LEVEL_TABLE_IMPORT_MAX, LEVEL_TABLE_JSON_BYTES_MAX, levelTableJsonBytes, levelTableSummary, levelTableToRows,
 } from '../../../shared/editor/levelTable'
-import { LEVEL_TABLE_ROWS_SHOWN } from '../../../shared/editor/results'
+import { LEVEL_TABLE_ROWS_SHOWN } from '../../../shared/present'
 
 /** The engine's issues for an input, by path, as the block collects them. */
 function issuesOf(input: unknown): Record<string, string> {

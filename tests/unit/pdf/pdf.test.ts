@@ -111,9 +111,9 @@ describe('record PDF of a levels block in its level-table form', () => {
     const verification = await verifyBundle(bundle)
     expect(verification.ok).toBe(true)
     const definition = JSON.stringify(recordDocumentDefinition({ bundle, state: 'awaiting_witness', auditEvents: [], verification }, canonicalJson(bundle)))
-    expect(definition).toContain('levelTable.energies')
-    expect(definition).toContain('(3000 values)')
-    expect(definition).toContain('levelTable.fractions')
+    expect(definition).toContain('3000 levels, energies in cm^-1')
+    expect(definition).toContain('Populations by level')
+    expect(definition).not.toContain('levelTable')
     expect(definition).toContain('"svg":"<svg')
     const pdf = await renderRecordPdfBytes({ bundle, state: 'awaiting_witness', auditEvents: [], verification })
     const extracted = extractBundleFromPdf(pdf, inflate) as typeof bundle

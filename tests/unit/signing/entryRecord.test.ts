@@ -109,7 +109,7 @@ describe('buildEntryRecord', () => {
     expect(blocks).toHaveLength(1)
     expect(blocks[0]).toMatchObject({ blockId: 'b1', title: 'Block b1', what: 'value', quantityCount: 1 })
     expect(blocks[0]!.quantities[0]).toMatchObject({ path: ['partitionFunction'], recorded: 99 })
-    expect(blocks[0]!.message).toMatch(/“Block b1”: partitionFunction: recorded 99, recomputed here 1\.\d+ \(relative difference 9\.\d+e-1\)/)
+    expect(blocks[0]!.message).toMatch(/“Block b1”: partition function, energies as given: recorded 99, recomputed here 1\.\d+ \(relative difference 9\.\d+e-1\)/)
   })
 })
 

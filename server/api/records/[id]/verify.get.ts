@@ -14,5 +14,11 @@ export default defineEventHandler(async (event) => {
   const version = await signingFrozenVersion(database, id, number)
   if (!version)
     throw createError({ statusCode: 404, message: number ? `Version ${number} of this entry has not been signed.` : 'This entry has no signed version yet.' })
-  return signingVerifyRecord(database, entry, version)
+  const report = await signingVerifyRecord(database, entry, version)
+  // A records officer's check is itself part of the record's history (issue 15): who, which version, what came out.
+  await recordAudit(database, {
+    action: 'record_verified', actorId: person.id, actorEmail: person.email, subjectType: 'entry', subjectId: id,
+    details: { title: entry.title, version: version.version, outcome: report.ok ? 'verified' : 'failed', recordHash: version.recordHash, ...(report.ok ? {} : { problems: report.problems.slice(0, 5) }) },
+  })
+  return report
 })
