@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # A private PostgreSQL cluster for Thermotome, listening on loopback only.
 #
-#   bash scripts/postgres.sh start|stop|status|url|psql [psql args...]
+#   bash scripts/postgres.sh start|stop|status|url [app]|psql [psql args...]
 #
 # Environment:
 #   THERMOTOME_DATA_DIR  data folder (default: <repo root>/.data). Holds pg/ (the cluster),
@@ -12,9 +12,13 @@
 #                        url prints it, psql connects to it, status checks it with pg_isready.
 #
 # Security: the cluster listens on 127.0.0.1 only, on its own port, with its socket in a
-# private folder (mode 700), and every connection needs the superuser's password
-# (scram-sha-256). The password is generated at initdb and kept in <data>/pg-password (mode
-# 600); `url` prints it inside the connection URL that becomes the app's DATABASE_URL.
+# private folder (mode 700), and every connection needs a password (scram-sha-256).
+# Two roles: the owner (the cluster's superuser `postgres`, password made at initdb and kept in
+# <data>/pg-password) owns the tables and runs migrations and the seed; `url` prints its URL.
+# The app role `thermotome_app` (NOSUPERUSER, owns nothing, password in <data>/pg-app-password,
+# made on start) is what the server connects as; `url app` prints its URL. Migrations grant it
+# SELECT/INSERT only on the frozen tables (server/database/migrate.ts), so the app cannot
+# disable triggers, set session_replication_role, or rewrite signed or audit rows.
 #
 # As root, initdb/pg_ctl/postgres run as the `postgres` system user (they refuse to run as
 # root). That user cannot enter mode-700 folders such as /root: when the data folder is not
@@ -28,6 +32,7 @@ REPO_ROOT=$(cd -- "$SCRIPT_DIR/.." && pwd -P)
 PORT=${THERMOTOME_PG_PORT:-54329}
 DB=${THERMOTOME_PG_DB:-thermotome}
 PG_SUPERUSER=postgres
+APP_ROLE=thermotome_app
 SYSTEM_USER=postgres # the OS account that owns the cluster when this script runs as root
 
 say() { printf 'postgres.sh: %s\n' "$*" >&2; }
@@ -35,11 +40,12 @@ die() { say "error: $*"; exit 1; }
 
 usage() {
   cat >&2 <<'EOF'
-usage: bash scripts/postgres.sh start|stop|status|url|psql [psql args...]
+usage: bash scripts/postgres.sh start|stop|status|url [app]|psql [psql args...]
   start   create (once) and start the private cluster, create the database if missing
   stop    stop the private cluster (fast shutdown)
   status  print running/stopped (exit 0 when running, 3 when not)
-  url     print the connection URL (the app's DATABASE_URL)
+  url     print the owner's connection URL (migrations, seed: DATABASE_OWNER_URL)
+  url app print the app role's connection URL (the server's DATABASE_URL)
   psql    run psql against the database, extra arguments go to psql
 env: THERMOTOME_DATA_DIR, THERMOTOME_PG_PORT (54329), THERMOTOME_PG_DB (thermotome), DATABASE_URL
 EOF
@@ -156,6 +162,7 @@ set_paths() {
   SOCKET_DIR=$DATA/pg-socket
   LOG_FILE=$DATA/pg.log
   PW_FILE=$DATA/pg-password
+  APP_PW_FILE=$DATA/pg-app-password
 }
 
 make_dirs() { # create missing folders with mode 755, whatever the umask
@@ -237,6 +244,35 @@ url_for() { # url_for <port>
   printf 'postgres://%s:%s@127.0.0.1:%s/%s\n' "$PG_SUPERUSER" "$PASSWORD" "$1" "$DB"
 }
 
+APP_PASSWORD=""
+load_app_password() { # sets APP_PASSWORD, making it once (mode 600)
+  if [[ ! -s $APP_PW_FILE ]]; then
+    (umask 077 && od -An -tx1 -N24 /dev/urandom | tr -d ' \n' >"$APP_PW_FILE" && echo >>"$APP_PW_FILE")
+  fi
+  IFS= read -r APP_PASSWORD <"$APP_PW_FILE" || true
+  [[ $APP_PASSWORD =~ ^[0-9a-f]+$ ]] || die "$APP_PW_FILE does not hold a generated password"
+}
+
+app_url_for() { # app_url_for <port>
+  load_app_password
+  printf 'postgres://%s:%s@127.0.0.1:%s/%s\n' "$APP_ROLE" "$APP_PASSWORD" "$1" "$DB"
+}
+
+ensure_app_role() { # ensure_app_role <port>: the server's role, never a superuser, owning nothing
+  load_app_password
+  local exists
+  exists=$(admin_psql "$1" "SELECT 1 FROM pg_roles WHERE rolname = '$APP_ROLE'") ||
+    die "cannot connect to the cluster on 127.0.0.1:$1 (log: $LOG_FILE)"
+  if [[ $exists != 1 ]]; then
+    admin_psql "$1" "CREATE ROLE $APP_ROLE LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATION NOBYPASSRLS PASSWORD '$APP_PASSWORD'" >/dev/null ||
+      die "could not create the app role $APP_ROLE"
+    say "created the app role $APP_ROLE"
+  else
+    admin_psql "$1" "ALTER ROLE $APP_ROLE LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATION NOBYPASSRLS PASSWORD '$APP_PASSWORD'" >/dev/null ||
+      die "could not update the app role $APP_ROLE"
+  fi
+}
+
 PSQL=""
 admin_psql() { # admin_psql <port> <sql>
   PGPASSWORD=$PASSWORD "$PSQL" -X -q -t -A -v ON_ERROR_STOP=1 \
@@ -254,6 +290,7 @@ ensure_database() { # ensure_database <port>
       die "could not create database $DB"
     say "created database $DB"
   fi
+  ensure_app_role "$1"
 }
 
 # ---------------------------------------------------------------- init
@@ -401,16 +438,18 @@ cmd_status() {
   return 3
 }
 
-cmd_url() {
+cmd_url() { # cmd_url [app]
+  local which=${1:-owner}
+  [[ $which == owner || $which == app ]] || { usage; exit 2; }
   if [[ -n ${DATABASE_URL:-} ]]; then
-    printf '%s\n' "$DATABASE_URL"
+    if [[ $which == owner ]]; then printf '%s\n' "${DATABASE_OWNER_URL:-$DATABASE_URL}"; else printf '%s\n' "$DATABASE_URL"; fi
     return 0
   fi
   resolve_data_dir 0
   set_paths
   local p=$PORT
   if postmaster_alive; then p=$(running_port); fi
-  url_for "${p:-$PORT}"
+  if [[ $which == app ]]; then app_url_for "${p:-$PORT}"; else url_for "${p:-$PORT}"; fi
 }
 
 cmd_psql() {
@@ -431,7 +470,7 @@ case ${1:-} in
   start) cmd_start ;;
   stop) cmd_stop ;;
   status) cmd_status ;;
-  url) cmd_url ;;
+  url) cmd_url "${2:-owner}" ;;
   psql) shift; cmd_psql "$@" ;;
   -h | --help | help) usage ;;
   *) usage; exit 2 ;;

@@ -2,9 +2,10 @@
 import { DEMO_PASSWORD, DEMO_PEOPLE } from '../shared/demo'
 import { seedDemoLab } from '../server/database/seed'
 
-const url = process.env.DATABASE_URL
+// The seed writes as the owner (DATABASE_OWNER_URL), like the migrations.
+const url = process.env.DATABASE_OWNER_URL || process.env.DATABASE_URL
 if (!url) {
-  console.error('DATABASE_URL is not set.')
+  console.error('DATABASE_OWNER_URL (or DATABASE_URL) is not set.')
   process.exit(1)
 }
 const seeded = await seedDemoLab(url)

@@ -10,10 +10,13 @@ say() { printf '\n== %s\n' "$*"; }
 bash scripts/ensure-packages.sh
 
 say "Database"
+# Two connections: the owner's (DATABASE_OWNER_URL) migrates and seeds; the app role's
+# (DATABASE_URL) is all the server gets, so it cannot disable triggers or rewrite history.
 if [[ -z "${DATABASE_URL:-}" ]]; then
   bash scripts/postgres.sh start
-  DATABASE_URL=$(bash scripts/postgres.sh url)
-  export DATABASE_URL
+  DATABASE_OWNER_URL=$(bash scripts/postgres.sh url)
+  DATABASE_URL=$(bash scripts/postgres.sh url app)
+  export DATABASE_OWNER_URL DATABASE_URL
 fi
 
 DATA_DIR=${THERMOTOME_DATA_DIR:-$PWD/.data}
@@ -31,6 +34,7 @@ fi
 say "Migrations and demo lab"
 npx tsx scripts/migrate.ts
 npx tsx scripts/seed.ts
+unset DATABASE_OWNER_URL # the server never sees the owner's connection
 
 say "Build"
 npx nuxi build > "$DATA_DIR/build.log" 2>&1 || { tail -40 "$DATA_DIR/build.log"; echo "The build failed; the full log is $DATA_DIR/build.log"; exit 1; }

@@ -149,6 +149,9 @@ export async function signingKill(f: Fixtures, server: AppServer) {
   const registered = await amara.post('/api/keys', { publicKey: Buffer.from(pair.publicKey).toString('base64'), sealedSecretKey, password: DEMO_PASSWORD, ...(current.body?.active ? { replaces: 'rotated' } : {}) })
   if (!check(S, 'signing key registered for the kill test', registered.status === 201, `${registered.status} ${registered.text.slice(0, 200)}`))
     return undefined
+  // A replacement key signs only once a records officer has confirmed it.
+  if (registered.body?.key?.pending)
+    await f.clients.felix.post(`/api/keys/${registered.body.key.id}/confirm`, { reason: 'Hardening run: confirmed by the records officer.' })
 
   const content = { type: 'doc', content: [
     { type: 'paragraph', content: [{ type: 'text', text: 'Signed while the server is killed.' }] },

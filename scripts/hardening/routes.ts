@@ -59,7 +59,13 @@ export const ROUTES: RouteRow[] = [
   { method: 'PUT', file: 'notebooks/[id]/members.put.ts', path: f => `/api/notebooks/${f.ids.fuzzNotebook}/members`, as: 'hana', body: 'json', valid: f => ({ memberIds: [f.ids.amara] }) },
   { method: 'POST', file: 'notebooks/[id]/entries.post.ts', path: f => `/api/notebooks/${f.ids.notebook}/entries`, as: 'amara', body: 'json', valid: () => ({ title: 'Fuzzed entry', content: doc }) },
   { method: 'PATCH', file: 'entries/[id].patch.ts', path: f => `/api/entries/${f.ids.fuzzEntry}`, as: 'amara', body: 'json', valid: () => ({ lockVersion: 1, title: 'Fuzzed title', content: doc }) },
-  { method: 'POST', file: 'people/index.post.ts', path: () => '/api/people', as: 'hana', body: 'json', valid: () => ({ email: `fuzz${Math.floor(Math.random() * 1e9)}@kestrel-ridge.example`, name: 'Fuzz Person', roles: ['witness'], password: 'fuzz-password-long' }) },
+  { method: 'POST', file: 'people/index.post.ts', path: () => '/api/people', as: 'hana', body: 'json', valid: () => ({ email: `fuzz${Math.floor(Math.random() * 1e9)}@kestrel-ridge.example`, name: 'Fuzz Person', roles: ['witness'] }) },
+  { method: 'POST', file: 'people/[id]/password-reset.post.ts', path: f => `/api/people/${f.ids.fuzzPerson}/password-reset`, as: 'hana', body: 'none', note: 'mails a one-time link' },
+  { method: 'POST', file: 'auth/password-reset.post.ts', path: () => '/api/auth/password-reset', as: 'anonymous', body: 'json', valid: () => ({ token: 'not-a-token-that-was-ever-issued', password: 'fuzz-password-long' }) },
+  { method: 'POST', file: 'auth/password.post.ts', path: () => '/api/auth/password', as: 'jonah', body: 'json', valid: () => ({ currentPassword: 'wrong password', newPassword: 'fuzz-password-long' }), note: 'a wrong current password: the demo password stays' },
+  { method: 'POST', file: 'keys/[id]/confirm.post.ts', path: () => '/api/keys/00000000-0000-4000-8000-000000000000/confirm', as: 'felix', body: 'json', valid: () => ({ reason: 'Checked in person at the lab.' }) },
+  { method: 'POST', file: 'tokens/index.post.ts', path: () => '/api/tokens', as: 'amara', body: 'json', valid: () => ({ name: 'fuzz own token', scopes: ['records:read'] }) },
+  { method: 'DELETE', file: 'tokens/[id].delete.ts', path: () => '/api/tokens/00000000-0000-4000-8000-000000000000', as: 'amara', body: 'none' },
   { method: 'PATCH', file: 'people/[id].patch.ts', path: f => `/api/people/${f.ids.fuzzPerson}`, as: 'hana', body: 'json', valid: () => ({ name: 'Fuzz Person Renamed' }) },
   { method: 'POST', file: 'admin/tokens/index.post.ts', path: () => '/api/admin/tokens', as: 'hana', body: 'json', valid: f => ({ name: 'fuzz token', actsFor: f.ids.amara, scopes: ['records:read'] }) },
   { method: 'DELETE', file: 'admin/tokens/[id].delete.ts', path: f => `/api/admin/tokens/${f.ids.token}`, as: 'hana', body: 'none' },
@@ -113,9 +119,10 @@ export async function makeFixtures(baseURL: string): Promise<Fixtures> {
   const entry = list.find(e => e.title.startsWith('Cell B baseline'))!
   const fuzzEntry = await amara.post(`/api/notebooks/${notebook.id}/entries`, { title: 'Fuzz target entry' })
   const fuzzNotebook = await hana.post('/api/notebooks', { name: 'Fuzz target notebook', memberIds: [] })
-  const fuzzPerson = await hana.post('/api/people', { email: 'fuzz.target@kestrel-ridge.example', name: 'Fuzz Target', roles: ['witness'], password: 'fuzz-target-password' })
+  const fuzzPerson = await hana.post('/api/people', { email: 'fuzz.target@kestrel-ridge.example', name: 'Fuzz Target', roles: ['witness'] })
   const revocable = await hana.post('/api/admin/tokens', { name: 'revocable', actsFor: amaraId, scopes: ['records:read'] })
-  const token = await hana.post('/api/admin/tokens', { name: 'hardening', actsFor: amaraId, scopes: ['records:read', 'entries:write', 'records:export'] })
+  // Write and export scopes need the consent of the person the token acts for: Amara makes it.
+  const token = await amara.post('/api/tokens', { name: 'hardening', scopes: ['records:read', 'entries:write', 'records:export'] })
   for (const [what, reply] of [['entry', fuzzEntry], ['notebook', fuzzNotebook], ['person', fuzzPerson], ['token', revocable], ['token', token]] as const) {
     if (reply.status !== 201) throw new Error(`fixture ${what}: ${reply.status} ${reply.text.slice(0, 200)}`)
   }

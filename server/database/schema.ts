@@ -27,9 +27,33 @@ export const people = pgTable('people', {
   name: text('name').notNull(),
   passwordHash: text('password_hash'),
   disabled: boolean('disabled').notNull().default(false),
+  /**
+   * Session epoch: every session cookie carries the epoch it was issued under, and a session
+   * whose epoch is not the person's current one is refused (server/utils/auth.ts). Sign-out and
+   * a password change add one, which ends every session of that person on every app server.
+   */
+  sessionEpoch: integer('session_epoch').notNull().default(0),
   createdAt,
   updatedAt,
 }, table => [uniqueIndex('people_email_unique').on(sql`lower(${table.email})`)])
+
+/**
+ * One-time password reset links. Administrators never set a password: they have a link mailed
+ * to the person, who sets it. Only the SHA-256 of the link's token is stored; a link works once,
+ * until `expiresAt`, and a newer link (or a use) closes every older one.
+ */
+export const passwordResets = pgTable('password_resets', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  personId: uuid('person_id').notNull().references(() => people.id),
+  tokenHash: text('token_hash').notNull(),
+  requestedBy: uuid('requested_by').references(() => people.id),
+  createdAt,
+  expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true, mode: 'date' }),
+}, table => [
+  uniqueIndex('password_resets_token').on(table.tokenHash),
+  index('password_resets_person').on(table.personId),
+])
 
 export const personRoles = pgTable('person_roles', {
   personId: uuid('person_id').notNull().references(() => people.id),
@@ -166,6 +190,14 @@ export const signingKeys = pgTable('signing_keys', {
   createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
   retiredAt: timestamp('retired_at', { withTimezone: true, mode: 'date' }),
   retiredReason: text('retired_reason'),
+  /**
+   * A key may sign once confirmed. A person's first key is confirmed when it is registered; a
+   * replacement waits (null) until a records officer other than its owner confirms it with a
+   * reason (server/utils/signing.ts signingKeyMaySign decides).
+   */
+  confirmedAt: timestamp('confirmed_at', { withTimezone: true, mode: 'date' }),
+  confirmedBy: uuid('confirmed_by').references(() => people.id),
+  confirmationReason: text('confirmation_reason'),
 }, table => [
   uniqueIndex('signing_keys_fingerprint').on(table.fingerprint),
   index('signing_keys_person').on(table.personId),
@@ -260,3 +292,4 @@ export type Signature = typeof signatures.$inferSelect
 export type SigningChallenge = typeof signingChallenges.$inferSelect
 export type ExportJob = typeof exportJobs.$inferSelect
 export type ApiToken = typeof apiTokens.$inferSelect
+export type PasswordReset = typeof passwordResets.$inferSelect

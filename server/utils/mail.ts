@@ -52,15 +52,19 @@ export async function mailSend(message: OutgoingMail): Promise<{ sent: true } | 
 }
 
 /**
- * Sends a message about an entry and records a failed send in the audit trail
+ * Sends a message about an entry (or another subject) and records a failed send in the audit trail
  * ('mail_failed'), so nobody is left believing a notice went out when it did not.
  */
-export async function mailSendAudited(message: OutgoingMail, context: { actor: SessionPerson, entryId: string, purpose: string }): Promise<boolean> {
+export async function mailSendAudited(
+  message: OutgoingMail,
+  context: { actor: SessionPerson, purpose: string } & ({ entryId: string } | { subjectType: string, subjectId: string }),
+): Promise<boolean> {
   const outcome = await mailSend(message)
   if (!outcome.sent) {
+    const subject = 'entryId' in context ? { subjectType: 'entry', subjectId: context.entryId } : { subjectType: context.subjectType, subjectId: context.subjectId }
     await recordAudit(useDatabase(), {
       action: 'mail_failed', actorId: context.actor.id, actorEmail: context.actor.email,
-      subjectType: 'entry', subjectId: context.entryId,
+      ...subject,
       details: { purpose: context.purpose, to: message.to, error: outcome.error.slice(0, 500) },
     }).catch((error: unknown) => console.error('[mail] could not record the failed send:', error))
   }

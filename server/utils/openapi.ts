@@ -28,7 +28,7 @@ export function integrationOpenApi(serverUrl: string) {
     info: {
       title: 'Thermotome integration API',
       version: '1.0.0',
-      description: `Bearer-token API for host notebook systems. Issue tokens on the admin page "API tokens"; each acts for one person and reaches only what that person may. Scopes: ${TOKEN_SCOPES.map(s => `${s} (${TOKEN_SCOPE_WORDS[s]})`).join('; ')}. Calculation engine ${ENGINE_VERSION}; kinds: ${listKinds().map(k => k.kind).join(', ')}.`,
+      description: `Bearer-token API for host notebook systems. Each token acts for one person and reaches only what that person may; write and export scopes need that person's consent (they make the token themselves on "My API tokens"; an administrator may issue records:read for someone else). Scopes: ${TOKEN_SCOPES.map(s => `${s} (${TOKEN_SCOPE_WORDS[s]})`).join('; ')}. Calculation engine ${ENGINE_VERSION}; kinds: ${listKinds().map(k => k.kind).join(', ')}.`,
     },
     servers: [{ url: serverUrl }],
     security: [{ bearerToken: [] }],

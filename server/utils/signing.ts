@@ -67,6 +67,29 @@ export async function signingRecordOfDraft(database: Reader, entry: Entry): Prom
   }
 }
 
+/**
+ * THE rule for whether a registered key may make a new signature: it is active (not retired)
+ * and confirmed. A person's first key is confirmed when registered; every later key waits for
+ * a records officer other than its owner to confirm it with a reason (POST
+ * /api/keys/:id/confirm), so that whoever holds a person's session and password cannot put a
+ * key of their own in that person's name and sign at once. Retired keys still verify what they
+ * signed; this only decides new signatures. Answers { ok: true } or the refusal, with why.
+ */
+export function signingKeyMaySign(key: Pick<SigningKey, 'retiredAt' | 'retiredReason' | 'confirmedAt'>): { ok: true } | { ok: false, statusCode: 403, message: string } {
+  if (key.retiredAt !== null)
+    return { ok: false, statusCode: 403, message: `That signing key was retired on ${key.retiredAt.toISOString()} (${key.retiredReason ?? 'no reason'}); sign with your active key.` }
+  if (key.confirmedAt === null)
+    return { ok: false, statusCode: 403, message: 'Your new signing key waits for a records officer to confirm it; it cannot sign until then.' }
+  return { ok: true }
+}
+
+/** Throws the refusal of signingKeyMaySign (403), for routes. */
+export function signingRequireKeyMaySign(key: Pick<SigningKey, 'retiredAt' | 'retiredReason' | 'confirmedAt'>): void {
+  const verdict = signingKeyMaySign(key)
+  if (!verdict.ok)
+    throw createError({ statusCode: verdict.statusCode, message: verdict.message })
+}
+
 /** The person's one active key, if any. */
 export async function signingActiveKey(database: Reader, personId: string): Promise<SigningKey | undefined> {
   const [key] = await database.select().from(signingKeys)
@@ -97,7 +120,8 @@ function fieldError(path: string, message: string, statusCode = 400): never {
 
 /**
  * The checks every signature must pass before anything is stored, in the order a person can
- * act on: the statement's wording and signer, the key (registered, theirs, active), the
+ * act on: the statement's wording and signer, the key (registered, theirs, and allowed to sign
+ * by signingKeyMaySign: active and confirmed), the
  * Ed25519 signature, then the challenge (theirs, for this entry and meaning, unused, unexpired,
  * and the statement's time and record hash are the challenge's). Answers:
  * 400 naming the field, 403 for a key that is not the signer's active key,
@@ -123,8 +147,7 @@ export async function signingCheckEnvelope(
   const [key] = await database.select().from(signingKeys).where(eq(signingKeys.fingerprint, statement.keyFingerprint)).limit(1)
   if (!key || key.personId !== person.id)
     throw createError({ statusCode: 403, message: 'The statement names a key that is not one of your signing keys.' })
-  if (key.retiredAt !== null)
-    throw createError({ statusCode: 403, message: `That signing key was retired on ${key.retiredAt.toISOString()} (${key.retiredReason ?? 'no reason'}); sign with your active key.` })
+  signingRequireKeyMaySign(key)
   if (envelope.publicKey !== key.publicKey)
     fieldError('envelope.publicKey', 'is not the key the statement names by its fingerprint')
   if (!ed25519Verify(statementBytes(statement), base64ToBytes(envelope.signature), base64ToBytes(key.publicKey)))

@@ -34,7 +34,30 @@ export function parseWith<S extends z.ZodType>(schema: S, value: unknown, where:
 // h3's readValidatedBody and friends re-wrap a thrown error as "Validation Error" and bury
 // the field list one level deeper; reading first and parsing here keeps one error shape.
 export async function validBody<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.output<S>> {
+  requireJsonBody(event)
   return parseWith(schema, await readBody(event), 'body')
+}
+
+/**
+ * Routes that read a JSON body take JSON only: a body of another type (a form, plain text)
+ * is refused with 415 before anything parses it (h3's readBody would otherwise decode a form
+ * into an object, NUL characters and all). A request without a body passes: the schema then
+ * says what is missing.
+ */
+export function requireJsonBody(event: H3Event) {
+  const length = Number(getRequestHeader(event, 'content-length') ?? 0)
+  const chunked = /\bchunked\b/i.test(getRequestHeader(event, 'transfer-encoding') ?? '')
+  if (!(length > 0) && !chunked)
+    return
+  const type = (getRequestHeader(event, 'content-type') ?? '').split(';')[0]!.trim().toLowerCase()
+  if (!/^application\/([a-z0-9.+-]+\+)?json$/.test(type)) {
+    throw createError({
+      statusCode: 415,
+      statusMessage: 'Unsupported Media Type',
+      message: `body: this route takes JSON (Content-Type: application/json), not ${type || 'a body without a Content-Type'}.`,
+      data: { issues: [{ path: 'body', message: 'expected application/json' }] },
+    })
+  }
 }
 
 export function validQuery<S extends z.ZodType>(event: H3Event, schema: S): z.output<S> {

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { withoutHiddenCharacters } from './text'
 
 import { VERSION_STATUSES, type VersionStatus } from '../records/lifecycle'
 
@@ -27,7 +28,7 @@ export const entryListQuerySchema = z.object({
   author: z.uuid({ error: 'expected a person id (UUID)' }).optional(),
 })
 
-export const entryTitleSchema = z.string({ error: 'expected a title' }).trim().min(1, 'a title is needed').max(200, 'at most 200 characters')
+export const entryTitleSchema = withoutHiddenCharacters(z.string({ error: 'expected a title' }).trim().min(1, 'a title is needed').max(200, 'at most 200 characters'))
 
 /** Editor JSON (a TipTap/ProseMirror document). The rich editor issue narrows the node types. */
 export const editorDocumentSchema = z.object({

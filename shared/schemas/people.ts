@@ -31,16 +31,35 @@ export const signInSchema = z.object({
   password: z.string({ error: 'expected a password' }).min(1, 'a password is needed').max(512, 'at most 512 characters'),
 })
 
+/** Hours a mailed password link works (a first-password link for a new person, or a reset). */
+export const PASSWORD_RESET_HOURS = 24
+
+const NO_PASSWORD = 'administrators never set passwords: the person gets a link by e-mail and sets their own'
+
+// Administrators never set a password: a `password` field is refused by name, not ignored, so
+// a client that still sends one learns that it was not used.
 export const createPersonSchema = z.object({
   email: emailSchema,
   name: personNameSchema,
   roles: rolesSchema,
-  password: passwordSchema,
+  password: z.never({ error: NO_PASSWORD }).optional(),
 })
 
 export const updatePersonSchema = z.object({
   name: personNameSchema.optional(),
   roles: rolesSchema.optional(),
   disabled: z.boolean({ error: 'expected true or false' }).optional(),
-  password: passwordSchema.optional(),
-}).refine(value => Object.values(value).some(v => v !== undefined), { message: 'nothing to change: give name, roles, disabled or password' })
+  password: z.never({ error: NO_PASSWORD }).optional(),
+}).refine(value => Object.values(value).some(v => v !== undefined), { message: 'nothing to change: give name, roles or disabled' })
+
+/** Setting a password with a mailed one-time link (no session needed). */
+export const passwordResetSchema = z.object({
+  token: z.string({ error: 'expected the token from the link' }).min(20, 'expected the token from the link').max(200, 'expected the token from the link'),
+  password: passwordSchema,
+})
+
+/** A signed-in person changing their own password. */
+export const passwordChangeSchema = z.object({
+  currentPassword: z.string({ error: 'expected your current password' }).min(1, 'your current password is needed').max(512, 'at most 512 characters'),
+  newPassword: passwordSchema,
+})

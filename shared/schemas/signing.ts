@@ -62,3 +62,8 @@ export const MEANING_WORDS: Record<string, string> = {
   witnessed: 'Countersigned by the witness',
   reviewed: 'Reviewed',
 }
+
+/** A records officer confirming a waiting signing key: why they are sure it is the person's. */
+export const confirmKeyBodySchema = z.object({
+  reason: z.string({ error: 'expected a reason' }).trim().min(10, 'say how you know this key is theirs (at least 10 characters)').max(1000, 'at most 1000 characters'),
+})

@@ -6,6 +6,11 @@ declare module '#auth-utils' {
     name: string
     roles: ('scientist' | 'witness' | 'compliance' | 'admin')[]
   }
+  interface UserSession {
+    /** The person's session epoch when this session was sealed (server/utils/auth.ts). */
+    epoch?: number
+    signedInAt?: string
+  }
 }
 
 export {}

@@ -1,6 +1,7 @@
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { as, Client, demoPerson } from '../support/http'
+import { createPersonWithPassword } from '../support/mail'
 
 // Throttling constants as documented in server/utils/throttle.ts: five free failures.
 const FREE_FAILURES = 5
@@ -82,10 +83,7 @@ describe('a disabled person', () => {
 
   it('cannot sign in, loses a live session at once, keeps their records, and it is all audited', async () => {
     const admin = await as('hana')
-    const email = `temporary.${Date.now()}@kestrel-ridge.example`
-    const created = await admin.post('/api/people', { email, name: 'Temporary Person', roles: ['scientist'], password: 'a long enough password' })
-    expect(created.status).toBe(201)
-    const id = created.body.person.id
+    const { id, email } = await createPersonWithPassword(admin, ['scientist'], 'a long enough password')
 
     const person = new Client('192.0.2.60')
     await person.signIn(email, 'a long enough password')
@@ -98,7 +96,7 @@ describe('a disabled person', () => {
     expect(again.body.message).toMatch(/disabled/)
 
     const { rows } = await database.query('SELECT action FROM audit_events WHERE subject_id = $1 ORDER BY sequence', [id])
-    expect(rows.map(r => r.action)).toEqual(['person_created', 'sign_in', 'person_disabled', 'sign_in_failed'])
+    expect(rows.map(r => r.action)).toEqual(['person_created', 'password_set_by_link', 'sign_in', 'person_disabled', 'sign_in_failed'])
     const stillThere = await database.query('SELECT disabled FROM people WHERE id = $1', [id])
     expect(stillThere.rows[0].disabled).toBe(true)
   })
@@ -117,9 +115,13 @@ describe('a disabled person', () => {
   })
 
   it('refuses a password shorter than 12 characters, naming the field', async () => {
-    const admin = await as('hana')
-    const reply = await admin.post('/api/people', { email: 'short.pw@kestrel-ridge.example', name: 'Short', roles: [], password: 'elevenchars' })
+    // The person sets it with their link (or when changing it); administrators never do.
+    const reply = await new Client('192.0.2.62').post('/api/auth/password-reset', { token: 'a'.repeat(43), password: 'elevenchars' })
     expect(reply.status).toBe(400)
     expect(reply.body.message).toMatch(/^password: at least 12 characters/)
+    const amara = await as('amara')
+    const change = await amara.post('/api/auth/password', { currentPassword: 'kestrel-ridge-demo', newPassword: 'elevenchars' })
+    expect(change.status).toBe(400)
+    expect(change.body.message).toMatch(/^newPassword: at least 12 characters/)
   })
 })

@@ -3,9 +3,10 @@ import { inject } from 'vitest'
 import { verifyBundle } from '../../shared/records'
 import { evaluate } from '../../shared/thermo'
 import { createSignedRecord } from '../support/signedRecords'
-import { as, baseURL, type Client } from '../support/http'
+import { as, baseURL, Client } from '../support/http'
 
 let admin: Client
+let tokenClients = 0
 let people: { id: string, email: string }[]
 let infraredId: string
 const personId = (prefix: string) => people.find(p => p.email.startsWith(prefix))!.id
@@ -21,8 +22,21 @@ async function bearer(token: string | null, method: string, path: string, body?:
   return { status: response.status, body: parsed, headers: response.headers }
 }
 
+/**
+ * A token for a person: an administrator may issue records:read for someone else; write and
+ * export scopes need the person's consent, so the person makes that token themselves.
+ */
 async function issue(actsFor: string, scopes: string[]) {
-  const reply = await admin.post('/api/admin/tokens', { name: `host ${scopes.join('+')} ${Date.now()}`, actsFor, scopes })
+  const name = `host ${scopes.join('+')} ${Date.now()}`
+  let reply
+  if (scopes.every(scope => scope === 'records:read')) {
+    reply = await admin.post('/api/admin/tokens', { name, actsFor, scopes })
+  }
+  else {
+    const self = new Client(`198.18.1.${tokenClients++ % 250}`)
+    await self.signIn(people.find(p => p.id === actsFor)!.email)
+    reply = await self.post('/api/tokens', { name, scopes })
+  }
   expect(reply.status).toBe(201)
   expect(reply.body.token).toMatch(/^tmt_/)
   return reply.body as { token: string, id: string }
@@ -81,6 +95,12 @@ describe('API tokens', () => {
     const limited = await bearer(token, 'GET', '/api/v1/notebooks')
     expect(limited.status).toBe(429)
     expect(Number(limited.headers.get('retry-after'))).toBeGreaterThan(0)
+  })
+
+  it('refuse an administrator giving someone else write or export scopes (their consent is needed)', async () => {
+    const reply = await admin.post('/api/admin/tokens', { name: 'in their name', actsFor: personId('amara'), scopes: ['records:read', 'records:export'] })
+    expect(reply.status).toBe(403)
+    expect(reply.body.message).toMatch(/^scopes: records:export/)
   })
 
   it('name the field of a bad token request', async () => {

@@ -45,6 +45,9 @@ async function registerKey(who: 'amara' | 'jonah' | 'priya', replaces?: 'rotated
   const current = await clients[who].get('/api/keys')
   const reply = await clients[who].post('/api/keys', { publicKey, sealedSecretKey, password: DEMO_PASSWORD, ...(current.body.active || replaces ? { replaces: replaces ?? 'rotated' } : {}) })
   expect(reply.status, JSON.stringify(reply.body)).toBe(201)
+  // A replacement key (fixtures made earlier keys) signs only once a records officer confirms it.
+  if (reply.body.key.pending)
+    expect((await clients.felix.post(`/api/keys/${reply.body.key.id}/confirm`, { reason: 'Confirmed for the signing tests.' })).status).toBe(200)
   keys[who] = { secretKey: pair.secretKey, fingerprint: await keyFingerprint(pair.publicKey) }
   return reply.body
 }

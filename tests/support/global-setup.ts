@@ -12,18 +12,26 @@ export const TEST_SESSION_PASSWORD = 'test-session-password-that-is-long-enough-
 declare module 'vitest' {
   export interface ProvidedContext {
     baseURL: string
+    /** The owner's connection to the test database (fixtures, tampering tests). */
     databaseURL: string
+    /** The app role's connection to the same database: what the server uses. */
+    appDatabaseURL: string
     embedHostOrigin: string
     mailDir: string
   }
 }
 
-/** A fresh database for this run on the private cluster (or TEST_DATABASE_URL's server). */
-async function freshDatabase(): Promise<string> {
+/**
+ * A fresh database for this run on the private cluster (or TEST_DATABASE_URL's server), with
+ * the owner's URL and the app role's (TEST_APP_DATABASE_URL's role on an outside server).
+ */
+async function freshDatabase(): Promise<{ owner: string, app: string }> {
   let adminUrl = process.env.TEST_DATABASE_URL
+  let appUrl = process.env.TEST_APP_DATABASE_URL
   if (!adminUrl) {
     execFileSync('bash', ['scripts/postgres.sh', 'start'], { cwd: root, stdio: 'inherit' })
     adminUrl = execFileSync('bash', ['scripts/postgres.sh', 'url'], { cwd: root, encoding: 'utf8' }).trim()
+    appUrl = execFileSync('bash', ['scripts/postgres.sh', 'url', 'app'], { cwd: root, encoding: 'utf8' }).trim()
   }
   const url = new URL(adminUrl)
   const name = `thermotome_test_${process.pid}`
@@ -33,7 +41,9 @@ async function freshDatabase(): Promise<string> {
   await admin.query(`CREATE DATABASE ${name}`)
   await admin.end()
   url.pathname = `/${name}`
-  return url.toString()
+  const app = new URL(appUrl ?? url.toString())
+  app.pathname = `/${name}`
+  return { owner: url.toString(), app: app.toString() }
 }
 
 async function waitForServer(baseURL: string, child: ChildProcess) {
@@ -80,7 +90,7 @@ async function startMailCatcher(dataDir: string): Promise<{ url: string, child: 
 
 export default async function setup(project: TestProject) {
   mkdirSync(`${root}/test-artifacts`, { recursive: true })
-  const databaseURL = await freshDatabase()
+  const { owner: databaseURL, app: appDatabaseURL } = await freshDatabase()
   await applyMigrations(databaseURL)
   await seedDemoLab(databaseURL)
 
@@ -102,7 +112,7 @@ export default async function setup(project: TestProject) {
       ...process.env,
       HOST: '127.0.0.1',
       PORT: String(port),
-      DATABASE_URL: databaseURL,
+      DATABASE_URL: appDatabaseURL,
       NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
       NUXT_DEMO_MODE: 'true',
       THERMOTOME_TRUST_PROXY: '1',
@@ -129,6 +139,7 @@ export default async function setup(project: TestProject) {
 
   project.provide('baseURL', baseURL)
   project.provide('databaseURL', databaseURL)
+  project.provide('appDatabaseURL', appDatabaseURL)
   project.provide('embedHostOrigin', embedHostOrigin)
   project.provide('mailDir', `${dataDir}/mail`)
 

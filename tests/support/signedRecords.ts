@@ -156,7 +156,8 @@ async function keyFor(client: pg.ClientBase, person: FixturePerson): Promise<Fix
   await client.query('UPDATE signing_keys SET retired_at = $2, retired_reason = $3 WHERE person_id = $1 AND retired_at IS NULL', [person.id, new Date(), 'replaced by a test fixture key'])
   const sealed = await sealSecretKey(key.pair.secretKey, 'fixture passphrase')
   await client.query(
-    'INSERT INTO signing_keys (id, person_id, public_key, fingerprint, sealed_secret_key, created_at) VALUES ($1, $2, $3, $4, $5, $6)',
+    // Confirmed at once, as a records officer would have: fixture keys stand for keys that may sign.
+    'INSERT INTO signing_keys (id, person_id, public_key, fingerprint, sealed_secret_key, created_at, confirmed_at) VALUES ($1, $2, $3, $4, $5, $6, $6)',
     [key.id, person.id, bytesToBase64(key.pair.publicKey), key.fingerprint, JSON.stringify(sealed), new Date(key.createdAt)],
   )
   keysByPerson.set(person.id, key)

@@ -38,10 +38,7 @@ export default defineEventHandler(async (event) => {
 
   await clearFailures(key)
   const current = (await findPerson(person.id))!
-  await setUserSession(event, {
-    user: { id: current.id, email: current.email, name: current.name, roles: current.roles },
-    signedInAt: new Date().toISOString(),
-  })
+  await startSession(event, current)
   await recordAudit(useDatabase(), {
     action: 'sign_in', actorId: person.id, actorEmail: person.email, subjectType: 'person', subjectId: person.id,
   })

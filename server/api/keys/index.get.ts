@@ -9,6 +9,7 @@ export default defineEventHandler(async (event) => {
     keys: keys.map(key => ({
       id: key.id, fingerprint: key.fingerprint, publicKey: key.publicKey, sealedSecretKey: key.sealedSecretKey,
       createdAt: key.createdAt, retiredAt: key.retiredAt, retiredReason: key.retiredReason,
+      confirmedAt: key.confirmedAt, confirmationReason: key.confirmationReason, pending: key.confirmedAt === null && key.retiredAt === null,
     })),
     active: keys.find(key => key.retiredAt === null)?.id ?? null,
   }

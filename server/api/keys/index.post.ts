@@ -8,6 +8,9 @@ import { people, signingKeys } from '../../database/schema'
  * signing passphrase (never the passphrase, never the open key). The account password is asked
  * again, so a stolen session cannot make itself a signing key. An active key is retired in the
  * same transaction, with the reason given ('rotated' or 'replaced: forgotten passphrase').
+ * A person's first key may sign at once. Every later key waits until a records officer other
+ * than its owner confirms it (keys/[id]/confirm.post.ts): the server cannot tell a true
+ * rotation or a forgotten passphrase from someone else holding the session and password.
  */
 export default defineEventHandler(async (event) => {
   const person = await requireRole(event, 'scientist', 'witness')
@@ -37,6 +40,8 @@ export default defineEventHandler(async (event) => {
 
   const fingerprint = await keyFingerprint(publicKey)
   const previous = await signingActiveKey(database, person.id)
+  const [anyEarlier] = await database.select({ id: signingKeys.id }).from(signingKeys).where(eq(signingKeys.personId, person.id)).limit(1)
+  const first = !anyEarlier
   if (previous && !body.replaces)
     validationError([{ path: 'replaces', message: 'you already have an active key: say whether it is rotated or replaced because the passphrase is forgotten' }], 'body')
 
@@ -55,15 +60,23 @@ export default defineEventHandler(async (event) => {
       }
       const [row] = await tx.insert(signingKeys).values({
         personId: person.id, publicKey: body.publicKey, fingerprint, sealedSecretKey: body.sealedSecretKey,
+        confirmedAt: first ? new Date() : null,
       }).returning()
       await recordAudit(database, {
         action: 'signing_key_registered', actorId: person.id, actorEmail: person.email, subjectType: 'signing_key', subjectId: row!.id,
-        details: { fingerprint, replaces: previous?.fingerprint ?? null, iterations: body.sealedSecretKey.iterations },
+        details: {
+          fingerprint, replaces: previous?.fingerprint ?? null, iterations: body.sealedSecretKey.iterations,
+          confirmation: first ? 'first key: none needed' : 'waits for a records officer',
+          ...(body.replaces ? { reason: KEY_RETIREMENT_REASONS[body.replaces] } : {}),
+        },
       }, tx)
       return row!
     })
     setResponseStatus(event, 201)
-    return { key: { id: key.id, fingerprint: key.fingerprint, publicKey: key.publicKey, createdAt: key.createdAt, retiredAt: null, retiredReason: null }, retired: previous?.id ?? null }
+    return {
+      key: { id: key.id, fingerprint: key.fingerprint, publicKey: key.publicKey, createdAt: key.createdAt, retiredAt: null, retiredReason: null, confirmedAt: key.confirmedAt, pending: key.confirmedAt === null },
+      retired: previous?.id ?? null,
+    }
   }
   catch (error) {
     if (signingIsUniqueViolation(error))

@@ -13,16 +13,18 @@ export default defineEventHandler(async (event) => {
   const before = await findPerson(id)
   if (!before)
     throw createError({ statusCode: 404, message: 'No such person.' })
-  if (id === admin.id && (body.disabled === true || (body.roles && !body.roles.includes('admin'))))
-    throw createError({ statusCode: 409, message: 'You cannot disable yourself or remove your own administrator role.' })
+  // Nobody grants themselves a role (nor drops one to dodge a rule): another administrator
+  // changes an administrator's roles. Passwords are never set here (see password-reset.post.ts).
+  if (id === admin.id && body.roles && body.roles.join() !== before.roles.join())
+    throw createError({ statusCode: 403, message: 'roles: nobody changes their own roles; ask another administrator.', data: { issues: [{ path: 'roles', message: 'nobody changes their own roles' }] } })
+  if (id === admin.id && body.disabled === true)
+    throw createError({ statusCode: 409, message: 'You cannot disable yourself.' })
 
   const database = useDatabase()
-  const passwordHash = body.password ? await hashPassword(body.password) : undefined
   await database.transaction(async (tx) => {
     const changes: Partial<typeof people.$inferInsert> = { updatedAt: new Date() }
     if (body.name !== undefined) changes.name = body.name
     if (body.disabled !== undefined) changes.disabled = body.disabled
-    if (passwordHash) changes.passwordHash = passwordHash
     await tx.update(people).set(changes).where(eq(people.id, id))
     const audit = (action: string, details: Record<string, unknown>) => recordAudit(database, {
       action, actorId: admin.id, actorEmail: admin.email, subjectType: 'person', subjectId: id, details,
@@ -38,9 +40,7 @@ export default defineEventHandler(async (event) => {
       await audit(body.disabled ? 'person_disabled' : 'person_enabled', {})
     if (body.name !== undefined && body.name !== before.name)
       await audit('person_renamed', { from: before.name, to: body.name })
-    if (passwordHash)
-      await audit('password_set', {})
   })
-  const after = (await findPerson(id))!
+  const { sessionEpoch: _epoch, ...after } = (await findPerson(id))!
   return { person: after }
 })

@@ -1,4 +1,4 @@
-import { createTokenSchema } from '#shared/schemas/tokens'
+import { SCOPES_WITHOUT_CONSENT, createTokenSchema } from '#shared/schemas/tokens'
 import { apiTokens } from '../../../database/schema'
 
 export default defineEventHandler(async (event) => {
@@ -7,6 +7,14 @@ export default defineEventHandler(async (event) => {
   const person = await findPerson(body.actsFor)
   if (!person)
     validationError([{ path: 'actsFor', message: 'no such person' }], 'body')
+  const needConsent = body.scopes.filter(scope => !SCOPES_WITHOUT_CONSENT.includes(scope))
+  if (person.id !== admin.id && needConsent.length) {
+    throw createError({
+      statusCode: 403,
+      message: `scopes: ${needConsent.join(', ')} act in ${person.name}'s name and need their consent: they make such a token themselves under "My API tokens". For someone else you may issue ${SCOPES_WITHOUT_CONSENT.join(', ')} only.`,
+      data: { issues: [{ path: 'scopes', message: `${needConsent.join(', ')} need the consent of the person the token acts for` }] },
+    })
+  }
   const minted = mintApiToken()
   const database = useDatabase()
   const token = await database.transaction(async (tx) => {

@@ -39,6 +39,7 @@ export default defineEventHandler(async (event) => {
   const key = await signingActiveKey(database, person.id)
   if (!key)
     throw createError({ statusCode: 409, message: 'You have no active signing key. Make one on the signing keys page first.' })
+  signingRequireKeyMaySign(key)
 
   const issuedAt = new Date()
   const expiresAt = new Date(issuedAt.getTime() + CHALLENGE_MINUTES * 60_000)

@@ -16,6 +16,7 @@ export default defineEventHandler(async (event) => {
   const keys = await database.select({
     fingerprint: signingKeys.fingerprint, publicKey: signingKeys.publicKey, createdAt: signingKeys.createdAt,
     retiredAt: signingKeys.retiredAt, retiredReason: signingKeys.retiredReason,
+    confirmedAt: signingKeys.confirmedAt, confirmedBy: signingKeys.confirmedBy, confirmationReason: signingKeys.confirmationReason,
   }).from(signingKeys).where(eq(signingKeys.personId, id)).orderBy(desc(signingKeys.createdAt))
   return { person: owner, keys }
 })
