@@ -331,8 +331,6 @@ export const RESULT_QUANTITIES: Record<string, QuantityGroup> = {
       target: { label: 'target value' },
       temperature: { label: 'temperature at which the output reaches the target', symbol: 'T', unit: K },
       value: { label: 'value of the output there' },
-      iterations: { label: 'root-finding iterations', form: 'integer' },
-      evaluations: { label: 'evaluations of the calculation', form: 'integer' },
     },
   },
 }

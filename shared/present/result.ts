@@ -424,7 +424,6 @@ const solveTemperature: Builder = (reader) => {
         { key: 'target', label: 'Target value', value: reader.text(result.target), exact: String(result.target) },
         ...reader.rows(['temperature']),
         { key: 'value', label: 'Value of the output at that temperature', value: reader.text(result.value), exact: String(result.value) },
-        ...reader.rows(['iterations'], ['evaluations']),
       ],
     }],
     tables: [],
