@@ -1,4 +1,5 @@
 import { verifyBundle } from '#shared/records'
+import { ed25519Verify } from './ed25519'
 import { ATKINSON_FILES, NOTO_GREEK_FILES, type PdfFontFiles } from '../pdf/fonts'
 import { pdfFontsReady, renderRecordPdfBytes, setupPdfFonts } from '../pdf/render'
 import type { ExportRecord } from './recordBundle'
@@ -26,7 +27,7 @@ async function readFontAsset(base: string, name: string): Promise<Uint8Array> {
 /** The record's PDF (same record, same bytes), checked again with verifyBundle at export. */
 export async function renderRecordPdf(record: ExportRecord): Promise<Buffer> {
   await loadPdfFonts()
-  const verification = await verifyBundle(record.bundle)
+  const verification = await verifyBundle(record.bundle, { verifyEd25519: ed25519Verify })
   return await renderRecordPdfBytes({ bundle: record.bundle, state: record.state, auditEvents: record.auditEvents, verification })
 }
 
