@@ -95,10 +95,29 @@ describe('rotation', () => {
     expect(result.populations[0].fraction + result.populations[1].fraction).toBeCloseTo(1, 6)
   })
   it('zero weights leave forbidden J out instead of reporting -Infinity', () => {
-    const result = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', symmetryNumber: 2, nuclearSpinWeights: { even: 1, odd: 0 }, temperature: '300 K' } }).result
+    const result = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', nuclearSpinWeights: { even: 1, odd: 0 }, temperature: '300 K' } }).result
     expect(result.populations.every((level: { J: number }) => level.J % 2 === 0)).toBe(true)
-    // With weights (1, 0) and σ = 2 the high-temperature q is T/(4Θ); the exact sum agrees closely.
+    // With weights (1, 0) the high-temperature q is T/(2Θ) (the weights stand for σ = 2); the exact sum agrees closely.
     expect(result.partitionFunction / result.correctedHighTemperaturePartitionFunction).toBeCloseTo(1, 3)
+  })
+  it('regression (issue 16): spin weights and σ = 2 do not count the symmetry twice', () => {
+    // 12C16O2: B0 = 0.39022 cm^-1 (NIST CCCBDB, quoted from memory), weights 1 (even J) and 0 (odd J)
+    // because the 16O nuclei are spinless bosons (Herzberg, Infrared and Raman Spectra, 1945, ch. I).
+    // q is the sum over the allowed (even) J alone, ≈ T/(2Θ_rot) (McQuarrie, Statistical Mechanics, eq. 6-41);
+    // the old engine divided that sum by σ = 2 again and gave half of it.
+    const withSigma = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', symmetryNumber: 2, nuclearSpinWeights: { even: 1, odd: 0 }, temperature: '300 K' } })
+    const theta = 0.39022 * C2
+    let evenSum = 0
+    for (let J = 0; J < 400; J += 2) evenSum += (2 * J + 1) * Math.exp((-theta * J * (J + 1)) / 300)
+    expect(Math.abs(withSigma.result.partitionFunction / evenSum - 1)).toBeLessThan(1e-12)
+    expect(Math.abs(withSigma.result.partitionFunction / (300 / (2 * theta)) - 1)).toBeLessThan(2e-3)
+    expect(withSigma.result.symmetryTreatment).toBe('nuclearSpinWeights')
+    expect(withSigma.result.symmetryNumberDivided).toBe(1)
+    expect(withSigma.warnings.join(' ')).toMatch(/σ = 2 is implied/)
+    // The same molecule described by σ = 2 alone has (at 300 K, Θ_rot/T ≈ 0.002) the same q and S within 1e-5 R.
+    const sigmaOnly = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', symmetryNumber: 2, temperature: '300 K' } }).result
+    expect(Math.abs(withSigma.result.partitionFunction / sigmaOnly.partitionFunction - 1)).toBeLessThan(1e-5)
+    expect(Math.abs(withSigma.result.molarEntropy - sigmaOnly.molarEntropy)).toBeLessThan(1e-5 * GAS_CONSTANT)
   })
   it('truncation by maxJ is reported', () => {
     const evaluation = evaluate({ kind: 'rotation', input: { rotationalConstant: '1.9225 cm^-1', temperature: '298.15 K', maxJ: 5 } })
