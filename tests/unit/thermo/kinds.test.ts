@@ -1,6 +1,6 @@
 // Behaviour of each kind, the registry and sweep/solveTemperature.
 import { describe, expect, it } from 'vitest'
-import { BOLTZMANN_CONSTANT, ENGINE_VERSION, GAS_CONSTANT, SECOND_RADIATION_CONSTANT, evaluate, listKinds, registry } from '../../../shared/thermo/index'
+import { BOLTZMANN_CONSTANT, ENGINE_VERSION, GAS_CONSTANT, PLANCK_CONSTANT, SECOND_RADIATION_CONSTANT, SPEED_OF_LIGHT, evaluate, listKinds, registry } from '../../../shared/thermo/index'
 
 // Second radiation constant in cm K, so x = c2 ν̃ / T for ν̃ in cm^-1.
 const C2 = SECOND_RADIATION_CONSTANT * 100
@@ -75,6 +75,95 @@ describe('vibration', () => {
     expect(bottom.partitionFunction / ground.partitionFunction).toBeCloseTo(Math.exp(-x / 2), 12)
     expect(bottom.molarInternalEnergy - ground.molarInternalEnergy).toBeCloseTo((GAS_CONSTANT * 500 * x) / 2, 6)
     expect(bottom.molarEntropy).toBeCloseTo(ground.molarEntropy, 10)
+  })
+})
+
+describe('vibration: degenerate modes (issue 16)', () => {
+  // A mode of degeneracy d has C(v+d-1, v) states at total quantum number v (Herzberg, Infrared
+  // and Raman Spectra of Polyatomic Molecules, 1945, ch. II; McQuarrie, Statistical Mechanics,
+  // ch. 8). Reference here: brute-force enumeration of d independent 1-D oscillators.
+  function enumerated(x: number, d: number, top: number): number[] {
+    const weights = new Array(top + 1).fill(0)
+    const visit = (remaining: number, used: number) => {
+      if (remaining === 0) {
+        if (used <= top) weights[used] += Math.exp(-used * x)
+        return
+      }
+      for (let n = 0; used + n <= top; n++) visit(remaining - 1, used + n)
+    }
+    visit(d, 0)
+    return weights
+  }
+  it.each([
+    ['CO2 bend ν2, d = 2', '667.4 cm^-1', 2],
+    ['CH4 ν4, d = 3', '1306 cm^-1', 3],
+  ])('%s at 1000 K: per-level fractions equal the enumerated states', (_name, wavenumber, d) => {
+    // Fundamentals: CO2 ν2 = 667.4 cm^-1, CH4 ν4 = 1306 cm^-1 (Shimanouchi, NSRDS-NBS 39, 1972; quoted from memory).
+    const result = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber, degeneracy: d }], temperature: '1000 K' } }).result
+    const mode = result.modes[0]
+    const x = (Number.parseFloat(wavenumber) * C2) / 1000
+    const weights = enumerated(x, d, 60)
+    const total = weights.reduce((sum: number, weight: number) => sum + weight, 0)
+    mode.populations.slice(0, 20).forEach((level: { v: number; degeneracy: number; fraction: number }) => {
+      expect(Math.abs(level.fraction / (weights[level.v] / total) - 1)).toBeLessThan(1e-10)
+    })
+    expect(mode.populations[1].degeneracy).toBe(d)
+    expect(mode.populations[2].degeneracy).toBe((d * (d + 1)) / 2)
+    // The mode's q is that of d oscillators: q1^d, so the per-component q is q1.
+    expect(Math.abs(mode.partitionFunction * -Math.expm1(-x) - 1)).toBeLessThan(1e-12)
+    const sum = mode.populations.reduce((acc: number, level: { fraction: number }) => acc + level.fraction, 0)
+    expect(Math.abs(sum - 1)).toBeLessThan(1e-11)
+  })
+  it('regression: the v = 1 fraction of a doubly degenerate bend is not that of a 1-D oscillator', () => {
+    const x = (667.4 * C2) / 1000
+    const bend = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '667.4 cm^-1', degeneracy: 2 }], temperature: '1000 K' } }).result.modes[0]
+    // p1 = 2 e^{-x} (1 - e^{-x})², not e^{-x} (1 - e^{-x}).
+    expect(bend.populations[1].fraction).toBeCloseTo(2 * Math.exp(-x) * (1 - Math.exp(-x)) ** 2, 12)
+  })
+  it('an anharmonic degenerate mode uses G(v) = ω(v + d/2) - ωx(v + d/2)² with C(v+d-1, v) states', () => {
+    const result = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '600 cm^-1', anharmonicity: '3 cm^-1', degeneracy: 2 }], temperature: '2000 K' } }).result.modes[0]
+    const G = (v: number) => 600 * (v + 1) - 3 * (v + 1) ** 2
+    // Last bound level: G(v) - G(v-1) = ω - ωx(2v + 1) > 0 for v < 99.5, so v = 99.
+    expect(result.highestBoundLevel).toBe(99)
+    let q = 0
+    for (let v = 0; v <= 99; v++) q += (v + 1) * Math.exp((-(G(v) - G(0)) * C2) / 2000)
+    expect(Math.abs(result.populations[3].fraction / ((4 * Math.exp((-(G(3) - G(0)) * C2) / 2000)) / q) - 1)).toBeLessThan(1e-9)
+    expect(result.zeroPointEnergyJ / (G(0) * 100 * PLANCK_CONSTANT * SPEED_OF_LIGHT)).toBeCloseTo(1, 12)
+  })
+})
+
+describe('vibration: one rule for the largest v (issue 16)', () => {
+  it('a harmonic mode and an almost harmonic anharmonic one stop at the same v, and the rule is stated', () => {
+    const harmonic = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '1000 cm^-1' }], temperature: '1500 K' } })
+    const almost = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '1000 cm^-1', anharmonicity: '1e-9 cm^-1' }], temperature: '1500 K' } })
+    const a = harmonic.result.modes[0]
+    const b = almost.result.modes[0]
+    expect(Math.abs(a.highestQuantumNumberSummed - b.highestQuantumNumberSummed)).toBeLessThanOrEqual(1)
+    expect(a.summationStop).toBe('converged')
+    expect(b.summationStop).toBe('converged')
+    // The levels above v_max hold less than the tolerance: e^{-(v+1)x} for a 1-D harmonic ladder.
+    const x = (1000 * C2) / 1500
+    expect(Math.exp(-(a.highestQuantumNumberSummed + 1) * x)).toBeLessThan(harmonic.result.summationTolerance)
+    expect(Math.exp(-a.highestQuantumNumberSummed * x)).toBeGreaterThanOrEqual(harmonic.result.summationTolerance)
+    expect(Math.abs(b.partitionFunction / a.partitionFunction - 1)).toBeLessThan(1e-8)
+    expect(harmonic.warnings.join(' ')).toMatch(/summed up to the first v above which the levels hold less than 1×10⁻¹²/)
+  })
+  it('an anharmonic ladder hot enough to reach dissociation stops there and warns about the levels near it', () => {
+    const evaluation = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '200 cm^-1', anharmonicity: '2 cm^-1' }], temperature: '3000 K' } })
+    const mode = evaluation.result.modes[0]
+    expect(mode.summationStop).toBe('dissociation')
+    expect(mode.highestQuantumNumberSummed).toBe(49)
+    expect(evaluation.warnings.join(' ')).toMatch(/levels near dissociation/)
+  })
+  it('maxQuantum below convergence truncates harmonic and anharmonic sums alike, with a warning', () => {
+    const evaluation = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '300 cm^-1' }, { wavenumber: '300 cm^-1', anharmonicity: '1e-9 cm^-1' }], temperature: '1000 K', maxQuantum: 3 } })
+    const [harmonic, anharmonic] = evaluation.result.modes
+    expect(harmonic.summationStop).toBe('maxQuantum')
+    expect(anharmonic.summationStop).toBe('maxQuantum')
+    expect(Math.abs(harmonic.partitionFunction / anharmonic.partitionFunction - 1)).toBeLessThan(1e-8)
+    const x = (300 * C2) / 1000
+    expect(harmonic.partitionFunction).toBeCloseTo(1 + Math.exp(-x) + Math.exp(-2 * x) + Math.exp(-3 * x), 12)
+    expect(evaluation.warnings.join(' ')).toMatch(/maxQuantum\) before it converged/)
   })
 })
 
