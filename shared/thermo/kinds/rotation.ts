@@ -38,7 +38,7 @@ export interface RotationalPopulation {
   /** (2J+1) times the nuclear-spin weight of J. */
   degeneracy: number
   energyJ: number
-  /** E_J as a wavenumber, cm^-1. */
+  /** E_J as a wavenumber, cm⁻¹. */
   wavenumber: number
   fraction: number
   log10Fraction: number
@@ -162,7 +162,7 @@ export function computeRotation(input: RotationInput, warnings: string[] = []): 
     molarInternalEnergy: molar.internalEnergy,
     molarEntropy: molar.entropy - GAS_CONSTANT * Math.log(sigma),
     molarHeatCapacity: molar.heatCapacity,
-    units: { temperature: 'K', rotationalTemperature: 'K', rotationalConstantWavenumber: 'cm^-1', energyJ: 'J per particle', wavenumber: 'cm^-1', molarInternalEnergy: 'J/mol', molarEntropy: 'J/(mol K)', molarHeatCapacity: 'J/(mol K)' },
+    units: { temperature: 'K', rotationalTemperature: 'K', rotationalConstantWavenumber: 'cm⁻¹', energyJ: 'J per particle', wavenumber: 'cm⁻¹', molarInternalEnergy: 'J/mol', molarEntropy: 'J/(mol K)', molarHeatCapacity: 'J/(mol K)' },
   }
 }
 

@@ -129,7 +129,7 @@ export function computeThermochemistry(input: ThermochemistryInput, warnings: st
     if (wavenumber < 100) soft.push(wavenumber.toPrecision(4))
   }
   if (soft.length > 0) {
-    warnings.push(`Vibrations below about 100 cm^-1 (${soft.join(', ')} cm^-1) are poorly described as harmonic oscillators (they are often hindered rotations); their entropy is uncertain.`)
+    warnings.push(`Vibrations below about 100 cm⁻¹ (${soft.join(', ')} cm⁻¹) are poorly described as harmonic oscillators (they are often hindered rotations); their entropy is uncertain.`)
   }
   const vibrational: Contribution = { partitionFunction: Number.isFinite(Math.exp(vibrationalLnQ)) ? Math.exp(vibrationalLnQ) : null, entropy: vibrationalS, heatCapacityP: vibrationalC, enthalpyMinusH0: vibrationalU }
 

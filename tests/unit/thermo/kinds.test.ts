@@ -279,7 +279,7 @@ describe('thermochemistry', () => {
   })
   it('warns about soft modes', () => {
     const evaluation = evaluate({ kind: 'thermochemistry', input: { molarMass: '100 g/mol', shape: 'nonlinear', rotationalConstants: ['0.1 cm^-1', '0.05 cm^-1', '0.03 cm^-1'], vibrations: [{ wavenumber: '45 cm^-1' }], temperature: '298.15 K' } })
-    expect(evaluation.warnings.join(' ')).toMatch(/below about 100 cm\^-1/)
+    expect(evaluation.warnings.join(' ')).toMatch(/below about 100 cm⁻¹/)
   })
 })
 
