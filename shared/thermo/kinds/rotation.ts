@@ -166,24 +166,6 @@ export function computeRotation(input: RotationInput, warnings: string[] = []): 
   }
 }
 
-/** ln of the exact rotational sum with energies B J(J+1) (used by thermochemistry). */
-export function linearRotorStatistics(constant: number, temperature: number) {
-  const kT = BOLTZMANN_CONSTANT * temperature
-  const peakJ = Math.sqrt(kT / (2 * constant))
-  const energies: number[] = []
-  const degeneracies: number[] = []
-  let running = 0
-  for (let J = 0; J < 1_000_000; J++) {
-    const energy = constant * J * (J + 1)
-    const term = (2 * J + 1) * Math.exp(-energy / kT)
-    energies.push(energy)
-    degeneracies.push(2 * J + 1)
-    running += term
-    if (J > peakJ + 2 && term < 1e-17 * running) break
-  }
-  return boltzmannStatistics(energies, degeneracies, temperature)
-}
-
 export const rotationKind = {
   title: 'Rotational ladder (linear rotor)',
   description: 'Exact rotational partition function, high-temperature forms and J populations of a linear molecule.',
