@@ -183,7 +183,7 @@ export interface ThermochemistryResult {
 }
 
 /** Largest J the asymmetric-top diagonalisation and the symmetric-top sum may run to (cost limit). */
-const ASYMMETRIC_LIMIT_J = 150
+const ASYMMETRIC_LIMIT_J = 100
 const SYMMETRIC_LIMIT_J = 1000
 const LINEAR_LIMIT_J = 1_000_000
 /** −ln of the tolerance plus room for the (2J+1)² factor: J needed ≈ √(35 kT/C). */
