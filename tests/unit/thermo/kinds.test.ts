@@ -105,7 +105,7 @@ describe('vibration: degenerate modes (issue 16)', () => {
     const weights = enumerated(x, d, 60)
     const total = weights.reduce((sum: number, weight: number) => sum + weight, 0)
     mode.populations.slice(0, 20).forEach((level: { v: number; degeneracy: number; fraction: number }) => {
-      expect(Math.abs(level.fraction / (weights[level.v] / total) - 1)).toBeLessThan(1e-10)
+      expect(Math.abs(level.fraction / (weights[level.v]! / total) - 1)).toBeLessThan(1e-10)
     })
     expect(mode.populations[1].degeneracy).toBe(d)
     expect(mode.populations[2].degeneracy).toBe((d * (d + 1)) / 2)
