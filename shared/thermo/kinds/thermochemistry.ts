@@ -79,7 +79,7 @@ export const thermochemistrySchema = strictObject({
   electronicLevels: z.array(strictObject({
     energy: energyField,
     degeneracy: wholeNumber('a degeneracy: a whole number of at least 1').default(1),
-  }), { error: 'expected a list of electronic levels' }).min(1, { error: 'give at least the ground electronic level' }).optional(),
+  }), { error: 'expected a list of electronic levels' }).max(1000, { error: 'expected at most 1000 electronic levels' }).optional(),
   temperature: temperatureField,
   pressure: quantityField('1 bar', (text) => toPascal(text, '')).default(1e5),
 }).superRefine((input, context) => {
@@ -343,10 +343,11 @@ export function computeThermochemistry(input: ThermochemistryInput, warnings: st
   }
   const vibrational: Contribution = { partitionFunction: Number.isFinite(Math.exp(vibrationalLnQ)) ? Math.exp(vibrationalLnQ) : null, entropy: vibrationalS, heatCapacityP: vibrationalC, enthalpyMinusH0: vibrationalU }
 
-  if (input.electronicLevels === undefined) {
+  const electronicGiven = (input.electronicLevels?.length ?? 0) > 0
+  if (!electronicGiven) {
     warnings.push('Electronic: a single non-degenerate ground state is assumed (g = 1, no low-lying levels). An open-shell molecule needs its levels: a triplet ground state such as O₂ X³Σg⁻ has g = 3; a radical with a low spin-orbit level such as NO X²Π has two levels of g = 2 about 120 cm⁻¹ apart.')
   }
-  const levels = input.electronicLevels ?? [{ energy: { text: '0 J', joules: 0 }, degeneracy: 1 }]
+  const levels = electronicGiven ? input.electronicLevels! : [{ energy: { text: '0 J', joules: 0 }, degeneracy: 1 }]
   const electronicStatistics = boltzmannStatistics(levels.map((level) => level.energy.joules), levels.map((level) => level.degeneracy), temperature)
   const electronicMolar = molarFunctions(electronicStatistics, temperature)
   const electronic: Contribution = {
