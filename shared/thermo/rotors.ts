@@ -121,6 +121,21 @@ function reducedAsymmetricTopLevels(J: number, A: number, B: number, C: number):
   return levels
 }
 
+/**
+ * The levels of each J for the last set of constants: they do not depend on the temperature, so
+ * a sweep over temperatures diagonalises once. Deterministic, so the functions stay pure in effect.
+ */
+const levelCache = { key: '', byJ: [] as { energy: number; kaOdd: boolean; kcOdd: boolean }[][] }
+
+function cachedAsymmetricTopLevels(J: number, A: number, B: number, C: number) {
+  const key = `${A} ${B} ${C}`
+  if (levelCache.key !== key) {
+    levelCache.key = key
+    levelCache.byJ = []
+  }
+  return (levelCache.byJ[J] ??= asymmetricTopLevels(J, A, B, C))
+}
+
 /** Rotor kinds the thermochemistry block tells apart. */
 export type RotorType = 'linear' | 'spherical top' | 'prolate symmetric top' | 'oblate symmetric top' | 'asymmetric top'
 
@@ -157,7 +172,7 @@ export function rotorLevels(constants: number[], kT: number, limitJ: number, dia
       degeneracies.push(2 * J + 1)
       classes.push(J % 2)
     } else if (type === 'asymmetric top' || diagonalise) {
-      for (const level of asymmetricTopLevels(J, A, B, C)) {
+      for (const level of cachedAsymmetricTopLevels(J, A, B, C)) {
         energies.push(level.energy)
         degeneracies.push(2 * J + 1)
         classes.push((level.kaOdd ? 2 : 0) + (level.kcOdd ? 1 : 0))
