@@ -107,6 +107,9 @@ export const thermochemistrySchema = strictObject({
     for (const key of other) {
       if (weights[key] !== undefined) context.addIssue({ code: 'custom', message: input.shape === 'linear' ? `a linear molecule's weights are for even and odd J, not '${key}'` : `a nonlinear molecule's weights are for the Ka/Kc parity classes ee, eo, oe, oo, not '${key}'`, path: ['nuclearSpin', 'weights', key] })
     }
+    if (input.shape === 'nonlinear' && count === 3 && rotorType(input.rotationalConstants!.map((constant) => constant.joules)) !== 'asymmetric top') {
+      context.addIssue({ code: 'custom', message: 'nuclear-spin weights are taken per Ka/Kc parity class, which describes asymmetric tops; for a symmetric or spherical top (weights by K or by J) give the symmetry number instead', path: ['nuclearSpin'] })
+    }
     const values = wanted.map((key) => weights[key] ?? 0)
     if (values.every((value) => value === 0)) context.addIssue({ code: 'custom', message: 'the nuclear-spin weights cannot all be zero', path: ['nuclearSpin', 'weights'] })
     else if (values.every((value) => value === values[0])) {

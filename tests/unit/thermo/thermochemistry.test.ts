@@ -217,6 +217,10 @@ describe('nuclear-spin statistics of hydrogen (issue 16)', () => {
     expect(implied.result.rotation.symmetryNumber).toBe(2)
   })
 
+  it('weights per Ka/Kc class are refused for a symmetric top (NH3 needs weights by K), naming the field', () => {
+    expect(() => thermochemistry({ molarMass: '17.031 g/mol', shape: 'nonlinear', rotationalConstants: ['9.44 cm-1', '9.44 cm-1', '6.20 cm-1'], nuclearSpin: { treatment: 'equilibrium', weights: { ee: 1, eo: 3, oe: 3, oo: 1 } } })).toThrow(/nuclearSpin.*symmetric or spherical top/)
+  })
+
   it('H2O with its ortho/para weights gives the σ = 2 result at room temperature', () => {
     // H2O: levels with Ka + Kc even are para (weight 1), odd are ortho (weight 3) (Herzberg 1945, ch. I.3).
     const weighted = thermochemistry({ ...WATER, nuclearSpin: { treatment: 'equilibrium', weights: { ee: 1, eo: 3, oe: 3, oo: 1 } } }).result
