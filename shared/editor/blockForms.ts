@@ -40,8 +40,8 @@ export type FieldSpec =
     levelTableKey?: string
   })
 
-const temperature: FieldSpec = { key: 'temperature', label: 'Temperature', type: 'quantity', placeholder: '298.15 K', hint: "With its unit: '296 K' or '25 degC'." }
-const energyHint = "Energy with its unit: cm^-1, eV, kJ/mol, K, Hz…"
+const temperature: FieldSpec = { key: 'temperature', label: 'Temperature', type: 'quantity', placeholder: '298.15 K', hint: "With its unit: '296 K', '25 °C' or '4.2 K'." }
+const energyHint = 'Energy with its unit: cm⁻¹ (or cm-1), eV, hartree, kJ/mol, K, MHz, or a vacuum wavelength in nm…'
 const symmetryOptions = [1, 2, 3, 4, 6, 12].map(value => ({ value, label: String(value) }))
 const temperatureKinds = Object.entries(registry).filter(([, definition]) => definition.temperatureField).map(([kind, definition]) => ({ value: kind, label: definition.title }))
 
@@ -54,7 +54,7 @@ export const BLOCK_FORMS: Record<string, FieldSpec[]> = {
       newRow: { energy: '', degeneracy: 1 },
       columns: [
         { key: 'label', label: 'Label', type: 'text', optional: true },
-        { key: 'energy', label: 'Energy', type: 'quantity', placeholder: '0 cm^-1' },
+        { key: 'energy', label: 'Energy', type: 'quantity', placeholder: '0 cm⁻¹' },
         { key: 'degeneracy', label: 'Degeneracy g', type: 'integer' },
       ],
     },
@@ -67,18 +67,18 @@ export const BLOCK_FORMS: Record<string, FieldSpec[]> = {
       key: 'modes', label: 'Modes', type: 'table', rowName: 'mode', newRow: { wavenumber: '' },
       columns: [
         { key: 'label', label: 'Label', type: 'text', optional: true },
-        { key: 'wavenumber', label: 'Wavenumber ω', type: 'quantity', placeholder: '2169.8 cm^-1' },
+        { key: 'wavenumber', label: 'Wavenumber ω', type: 'quantity', placeholder: '2169.8 cm⁻¹' },
         { key: 'degeneracy', label: 'Degeneracy', type: 'integer', optional: true },
-        { key: 'anharmonicity', label: 'Anharmonicity ωx', type: 'quantity', optional: true, placeholder: '13.3 cm^-1' },
+        { key: 'anharmonicity', label: 'Anharmonicity ωx', type: 'quantity', optional: true, placeholder: '13.3 cm⁻¹' },
       ],
     },
   ],
   rotation: [
     temperature,
-    { key: 'rotationalConstant', label: 'Rotational constant B', type: 'quantity', placeholder: '1.9313 cm^-1' },
-    { key: 'centrifugalDistortion', label: 'Centrifugal distortion D', type: 'quantity', optional: true, placeholder: '6.1e-6 cm^-1' },
+    { key: 'rotationalConstant', label: 'Rotational constant B', type: 'quantity', placeholder: '1.9313 cm⁻¹' },
+    { key: 'centrifugalDistortion', label: 'Centrifugal distortion D', type: 'quantity', optional: true, placeholder: '6.1e-6 cm⁻¹' },
     { key: 'symmetryNumber', label: 'Symmetry number σ', type: 'select', options: [{ value: 1, label: '1 (heteronuclear)' }, { value: 2, label: '2 (homonuclear)' }] },
-    { key: 'nuclearSpinWeights.even', label: 'Nuclear-spin weight, even J', type: 'number', optional: true },
+    { key: 'nuclearSpinWeights.even', label: 'Nuclear-spin weight, even J', type: 'number', optional: true, hint: 'With weights, σ is implied and not divided again (12C16O2: even 1, odd 0).' },
     { key: 'nuclearSpinWeights.odd', label: 'Nuclear-spin weight, odd J', type: 'number', optional: true },
     { key: 'maxJ', label: 'Highest J', type: 'integer', optional: true, hint: 'Optional: leave empty to sum until the terms vanish.' },
   ],
@@ -100,7 +100,7 @@ export const BLOCK_FORMS: Record<string, FieldSpec[]> = {
       newRow: { upperEnergy: '', degeneracy: 1, intensity: 1 },
       columns: [
         { key: 'label', label: 'Label', type: 'text', optional: true },
-        { key: 'upperEnergy', label: 'Upper energy', type: 'quantity', placeholder: '1000 cm^-1' },
+        { key: 'upperEnergy', label: 'Upper energy', type: 'quantity', placeholder: '1000 cm⁻¹' },
         { key: 'degeneracy', label: 'g upper', type: 'number' },
         { key: 'intensity', label: 'Intensity I', type: 'number' },
         { key: 'uncertainty', label: 'σ(I)', type: 'number', optional: true },
@@ -110,15 +110,32 @@ export const BLOCK_FORMS: Record<string, FieldSpec[]> = {
   ],
   thermochemistry: [
     temperature,
-    { key: 'pressure', label: 'Pressure', type: 'quantity', optional: true, placeholder: '1 bar' },
-    { key: 'molarMass', label: 'Molar mass', type: 'quantity', placeholder: '28.0134 g/mol' },
+    { key: 'pressure', label: 'Pressure', type: 'quantity', optional: true, placeholder: '1 bar', hint: 'bar, mbar, atm, Pa, kPa, Torr, mmHg or psi.' },
+    { key: 'molarMass', label: 'Molar mass', type: 'quantity', placeholder: '28.0134 g/mol', hint: 'In g/mol or kg/mol, or the mass of one molecule in u or Da.' },
     { key: 'shape', label: 'Shape', type: 'select', options: [{ value: 'atom', label: 'Atom' }, { value: 'linear', label: 'Linear molecule' }, { value: 'nonlinear', label: 'Nonlinear molecule' }] },
-    { key: 'symmetryNumber', label: 'Symmetry number σ', type: 'select', options: symmetryOptions },
-    { key: 'rotationalConstants', label: 'Rotational constants', type: 'list', optional: true, placeholder: '1.98958 cm^-1', hint: 'One (linear) or three (nonlinear), separated by commas.' },
+    { key: 'formula', label: 'Formula', type: 'text', optional: true, placeholder: 'H2O', hint: 'Optional: the number of vibrations is then checked against 3N − 5 (linear) or 3N − 6.' },
+    { key: 'symmetryNumber', label: 'Symmetry number σ', type: 'select', optional: true, options: symmetryOptions, hint: 'Leave it to the nuclear-spin weights when you give them: they imply σ.' },
+    { key: 'rotationalConstants', label: 'Rotational constants', type: 'list', optional: true, placeholder: '1.98958 cm⁻¹', hint: 'One (linear) or three (nonlinear), separated by commas.' },
+    {
+      key: 'electronicLevels', label: 'Electronic levels', type: 'table', rowName: 'electronic level', optional: true, newRow: { energy: '0 cm⁻¹', degeneracy: 1 },
+      hint: 'The ground state first (energy 0) with its degeneracy, then any low-lying levels. A triplet ground state (O₂ X³Σg⁻) has g = 3; a doublet with a low spin-orbit level (NO X²Π) is two levels of g = 2 about 120 cm⁻¹ apart. Empty means one non-degenerate level.',
+      columns: [
+        { key: 'energy', label: 'Energy', type: 'quantity', placeholder: '0 cm⁻¹' },
+        { key: 'degeneracy', label: 'Degeneracy g', type: 'integer' },
+      ],
+    },
+    { key: 'nuclearSpin.treatment', label: 'Nuclear-spin statistics', type: 'select', optional: true, options: [{ value: 'equilibrium', label: 'Equilibrium (spin modifications interconvert)' }, { value: 'normal', label: 'Normal (frozen at the high-temperature ratio, e.g. n-H₂)' }], hint: 'For H₂, D₂ and other homonuclear species at low temperature; give the weights below.' },
+    { key: 'nuclearSpin.weights.even', label: 'Spin weight, even J (linear)', type: 'number', optional: true, hint: 'H₂: even 1, odd 3; D₂: even 6, odd 3.' },
+    { key: 'nuclearSpin.weights.odd', label: 'Spin weight, odd J (linear)', type: 'number', optional: true },
+    { key: 'nuclearSpin.weights.ee', label: 'Spin weight, Ka Kc even even (nonlinear)', type: 'number', optional: true, hint: 'H₂O: ee 1, eo 3, oe 3, oo 1.' },
+    { key: 'nuclearSpin.weights.eo', label: 'Spin weight, Ka Kc even odd', type: 'number', optional: true },
+    { key: 'nuclearSpin.weights.oe', label: 'Spin weight, Ka Kc odd even', type: 'number', optional: true },
+    { key: 'nuclearSpin.weights.oo', label: 'Spin weight, Ka Kc odd odd', type: 'number', optional: true },
     {
       key: 'vibrations', label: 'Vibrations', type: 'table', rowName: 'vibration', optional: true, newRow: { wavenumber: '' },
+      hint: 'A degenerate mode once, with its degeneracy (a linear molecule’s bend: 2).',
       columns: [
-        { key: 'wavenumber', label: 'Wavenumber', type: 'quantity', placeholder: '2329.9 cm^-1' },
+        { key: 'wavenumber', label: 'Wavenumber', type: 'quantity', placeholder: '2329.9 cm⁻¹' },
         { key: 'degeneracy', label: 'Degeneracy', type: 'integer', optional: true },
       ],
     },

@@ -141,11 +141,14 @@ const vibration: QuantityGroup = {
           log10PartitionFunction: { label: 'base-10 logarithm of the partition function of one oscillator', symbol: 'log₁₀ q' },
           zeroPointEnergyJ: { label: 'zero-point energy per oscillator', symbol: 'E₀', unit: J },
           highestBoundLevel: { label: 'highest bound level', symbol: 'v_max', form: 'integer' },
+          highestQuantumNumberSummed: { label: 'highest quantum number summed', symbol: 'v_sum', form: 'integer' },
+          summationStop: { label: 'why the sum stops there', form: 'text' },
           populations: {
             item: vibrationLevel,
             each: {
               fields: {
                 v: { label: 'vibrational quantum number', symbol: 'v', form: 'integer' },
+                degeneracy: { label: 'states at this level', symbol: 'g_v = (v+d−1 choose v)', form: 'integer' },
                 energyJ: { label: 'energy above the energy zero', symbol: 'E', unit: J },
                 fraction,
                 log10Fraction,
@@ -158,6 +161,7 @@ const vibration: QuantityGroup = {
     },
     partitionFunction: { label: 'partition function of all modes', symbol: 'q' },
     log10PartitionFunction: { label: 'base-10 logarithm of the partition function of all modes', symbol: 'log₁₀ q' },
+    summationTolerance: { label: 'population left out of each sum, at most (fraction)', symbol: 'ε' },
     ...molar,
   },
 }
@@ -186,6 +190,8 @@ const rotation: QuantityGroup = {
     mostPopulatedJ: { label: 'most populated J', symbol: 'J_max', form: 'integer' },
     mostPopulatedJContinuous: { label: 'most populated J from the rigid-rotor formula', symbol: '√(T/2Θ_rot) − ½' },
     highestJ: { label: 'highest J summed', form: 'integer' },
+    symmetryTreatment: { label: 'how symmetry enters the sum', form: 'text' },
+    symmetryNumberDivided: { label: 'symmetry number the sum is divided by', symbol: 'σ', form: 'integer' },
     ...molar,
   },
 }
@@ -307,6 +313,24 @@ const thermochemistry: QuantityGroup = {
         enthalpyMinusH0: contribution.fields.enthalpyMinusH0!,
         gibbsMinusH0: { label: 'Gibbs energy above 0 K', symbol: 'G° − H°(0)', unit: J_PER_MOL },
         zeroPointEnergy: { label: 'harmonic zero-point energy', symbol: 'E_ZPE', unit: J_PER_MOL },
+      },
+    },
+    rotation: {
+      fields: {
+        rotorType: { label: 'rotor type', form: 'text' },
+        method: { label: 'how the rotational sum was done', form: 'text' },
+        highestJSummed: { label: 'highest J summed', form: 'integer' },
+        tolerance: { label: 'part of the sum left out, at most (fraction)', symbol: 'ε' },
+        nextTermEstimate: { label: 'estimate of the terms the classical form leaves out (fraction)' },
+        nuclearSpinTreatment: { label: 'nuclear-spin statistics', form: 'text' },
+        symmetryNumber: { label: 'rotational symmetry number used', symbol: 'σ', form: 'integer' },
+      },
+    },
+    modeCount: {
+      fields: {
+        given: { label: 'vibrational modes given (with degeneracy)', form: 'integer' },
+        expected: { label: 'vibrational modes expected (3N − 5 or 3N − 6)', form: 'integer' },
+        atoms: { label: 'atoms', symbol: 'N', form: 'integer' },
       },
     },
   },

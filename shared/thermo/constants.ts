@@ -39,6 +39,21 @@ export const ATOMIC_MASS_CONSTANT = 1.6605390666e-27
 /** Standard-state pressure p° = 1 bar = 10^5 Pa (IUPAC recommendation since 1982). */
 export const STANDARD_PRESSURE = 1e5
 
+/** Hartree energy E_h in J (CODATA 2018, measured: 4.359 744 722 2071(85) × 10^-18 J). */
+export const HARTREE_ENERGY = 4.3597447222071e-18
+
+/** Standard atmosphere in Pa (exact by definition, 10th CGPM 1954; SI Brochure, 9th ed., Table 8 note). */
+export const STANDARD_ATMOSPHERE = 101325
+
+/**
+ * Conventional millimetre of mercury in Pa: 13.5951 g/cm³ × 9.80665 m/s² × 1 mm = 133.322 387 415
+ * Pa exactly (conventional density of mercury and standard gravity; NIST SP 811 (2008), B.8).
+ */
+export const MILLIMETRE_OF_MERCURY = 133.322387415
+
+/** Pound-force per square inch in Pa: 0.453 592 37 kg × 9.806 65 m/s² / (0.0254 m)² (exact; NIST SP 811, B.8). */
+export const POUND_FORCE_PER_SQUARE_INCH = (0.45359237 * 9.80665) / (0.0254 * 0.0254)
+
 /** Thermochemical calorie in J (exact by definition, 4.184 J; NIST SP 811). */
 export const THERMOCHEMICAL_CALORIE = 4.184
 

@@ -6,6 +6,7 @@ import { EngineInputError, type InputIssue } from './errors'
 import { registry, type KindDefinition, type KindName, type KindResults } from './registry'
 import { issuesFromZod } from './schema'
 import { NumberColumn, isKnownFinite, isResultColumn } from './columns'
+import { isWavelengthText } from './units'
 
 export * from './constants'
 export { EngineInputError, type InputIssue } from './errors'
@@ -103,10 +104,36 @@ export function evaluate(request: EvaluationRequest): EvaluationResult {
     }
     throw error
   }
+  const wavelengths = wavelengthTexts(input)
+  if (wavelengths.length > 0) {
+    warnings.push(`${wavelengths.map((text) => `'${text.trim()}'`).join(', ')}${wavelengths.length === WAVELENGTHS_NAMED ? ' and perhaps others' : ''} ${wavelengths.length === 1 ? 'is' : 'are'} read as vacuum wavelength${wavelengths.length === 1 ? '' : 's'}: E = hc/λ. A wavelength measured in air is shorter by the refractive index of air (about 1.0003).`)
+  }
   if (replaceNonFinite(result)) {
     warnings.push('Some numbers were outside the range of a double and are reported as null.')
   }
   return { kind, engineVersion: `${ENGINE_VERSION}/${kind}@${definition.version}`, result, warnings }
+}
+
+const WAVELENGTHS_NAMED = 3
+const TEXTS_SCANNED = 20_000
+
+/** Up to three texts of the input given as wavelengths (energies in nm, µm or Å). */
+function wavelengthTexts(input: unknown): string[] {
+  const found: string[] = []
+  let scanned = 0
+  const visit = (value: unknown): void => {
+    if (found.length >= WAVELENGTHS_NAMED || scanned > TEXTS_SCANNED) return
+    if (typeof value === 'string') {
+      scanned++
+      if (isWavelengthText(value)) found.push(value)
+    } else if (Array.isArray(value)) {
+      for (const item of value) visit(item)
+    } else if (value !== null && typeof value === 'object') {
+      for (const item of Object.values(value)) visit(item)
+    }
+  }
+  visit(input)
+  return found
 }
 
 /**

@@ -81,7 +81,7 @@ const energyColumn = z
   })
 
 const levelTable = strictObject({
-  energyUnit: quantityField("cm^-1", (text) => ({ text: text.trim(), factor: energyFactor(text, '') })),
+  energyUnit: quantityField("cm⁻¹", (text) => ({ text: text.trim(), factor: energyFactor(text, '') })),
   energies: energyColumn,
   degeneracies: numberColumn('degeneracies as whole numbers of at least 1', firstNonDegeneracy).optional(),
   labels: z.array(z.string({ error: 'expected a label as text' })).optional(),

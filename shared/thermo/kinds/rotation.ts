@@ -1,8 +1,11 @@
 /**
  * Kind `rotation`: the linear rotor. Levels E_J = B J(J+1) - D J²(J+1)², degeneracy 2J+1,
- * optional nuclear-spin weights for even and odd J, symmetry number σ.
- * Exact sum q = (1/σ) Σ w_J (2J+1) e^{-E_J/kT}; high-temperature form q ≈ w̄ T/(σ Θ_rot) and its
- * first-order correction q ≈ w̄ T/(σ Θ_rot) (1 + Θ_rot/(3T)) (Mulholland 1928; McQuarrie,
+ * and either a symmetry number σ or nuclear-spin weights w_J for even and odd J, never both:
+ * without weights q = (1/σ) Σ (2J+1) e^{-E_J/kT}; with weights q = Σ w_J (2J+1) e^{-E_J/kT},
+ * which already leaves out the levels σ stands for (and counts the nuclear-spin states), so σ
+ * is not divided again. High-temperature form q ≈ w̄ T/(σ' Θ_rot) and its first-order
+ * correction q ≈ w̄ T/(σ' Θ_rot) (1 + Θ_rot/(3T)), with σ' = σ without weights and 1 with
+ * them, w̄ = (w_even + w_odd)/2 (Mulholland 1928; McQuarrie,
  * Statistical Mechanics, eqs. 6-40 to 6-42); most populated J ≈ √(T/(2Θ_rot)) - ½
  * (Atkins' Physical Chemistry, Topic 12C).
  */
@@ -35,7 +38,7 @@ export interface RotationalPopulation {
   /** (2J+1) times the nuclear-spin weight of J. */
   degeneracy: number
   energyJ: number
-  /** E_J as a wavenumber, cm^-1. */
+  /** E_J as a wavenumber, cm⁻¹. */
   wavenumber: number
   fraction: number
   log10Fraction: number
@@ -46,11 +49,15 @@ export interface RotationResult {
   /** Θ_rot = B/k, K. */
   rotationalTemperature: number
   rotationalConstantWavenumber: number
-  /** Exact sum over J (divided by σ). */
+  /** Exact sum over J: divided by σ without spin weights, spin-weighted (σ implied) with them. */
   partitionFunction: number
-  /** w̄ T/(σ Θ_rot). */
+  /** How the symmetry of the molecule entered: through σ, or through the nuclear-spin weights. */
+  symmetryTreatment: 'symmetryNumber' | 'nuclearSpinWeights'
+  /** The number q was divided by: σ without spin weights, 1 with them. */
+  symmetryNumberDivided: number
+  /** w̄ T/(σ' Θ_rot). */
   highTemperaturePartitionFunction: number
-  /** w̄ T/(σ Θ_rot) (1 + Θ_rot/(3T)). */
+  /** w̄ T/(σ' Θ_rot) (1 + Θ_rot/(3T)). */
   correctedHighTemperaturePartitionFunction: number
   populations: RotationalPopulation[]
   mostPopulatedJ: number
@@ -69,7 +76,9 @@ export function computeRotation(input: RotationInput, warnings: string[] = []): 
   const kT = BOLTZMANN_CONSTANT * temperature
   const constant = input.rotationalConstant.joules
   const distortion = input.centrifugalDistortion?.joules ?? 0
-  const sigma = input.symmetryNumber
+  const weighted = input.nuclearSpinWeights !== undefined
+  // The weights already remove the levels σ accounts for: dividing by σ as well counted the symmetry twice.
+  const sigma = weighted ? 1 : input.symmetryNumber
   const weightEven = input.nuclearSpinWeights?.even ?? 1
   const weightOdd = input.nuclearSpinWeights?.odd ?? 1
   const theta = constant / BOLTZMANN_CONSTANT
@@ -117,7 +126,12 @@ export function computeRotation(input: RotationInput, warnings: string[] = []): 
   if (temperature < 5 * theta) {
     warnings.push(`T is only ${messageNumber(temperature / theta, 3)} times Θ_rot: the high-temperature forms are poor here; use the exact sum.`)
   }
-  if (sigma > 1 && input.nuclearSpinWeights === undefined && temperature < 5 * theta) {
+  if (weighted) {
+    warnings.push(input.symmetryNumber > 1
+      ? `The nuclear-spin weights already count the symmetry (σ = ${input.symmetryNumber} is implied by them), so q is not divided by σ again; q counts the nuclear-spin states as weighted.`
+      : 'q is summed with the nuclear-spin weights and counts the nuclear-spin states as weighted; no symmetry number is divided.')
+  }
+  if (sigma > 1 && !weighted && temperature < 5 * theta) {
     warnings.push('At this temperature the symmetry number alone does not describe a homonuclear molecule: give nuclear-spin weights for even and odd J.')
   }
 
@@ -137,6 +151,8 @@ export function computeRotation(input: RotationInput, warnings: string[] = []): 
     rotationalTemperature: theta,
     rotationalConstantWavenumber: joulesToWavenumber(constant),
     partitionFunction: Math.exp(lnQ),
+    symmetryTreatment: weighted ? 'nuclearSpinWeights' : 'symmetryNumber',
+    symmetryNumberDivided: sigma,
     highTemperaturePartitionFunction: highTemperature,
     correctedHighTemperaturePartitionFunction: highTemperature * (1 + theta / (3 * temperature)),
     populations,
@@ -146,32 +162,14 @@ export function computeRotation(input: RotationInput, warnings: string[] = []): 
     molarInternalEnergy: molar.internalEnergy,
     molarEntropy: molar.entropy - GAS_CONSTANT * Math.log(sigma),
     molarHeatCapacity: molar.heatCapacity,
-    units: { temperature: 'K', rotationalTemperature: 'K', rotationalConstantWavenumber: 'cm^-1', energyJ: 'J per particle', wavenumber: 'cm^-1', molarInternalEnergy: 'J/mol', molarEntropy: 'J/(mol K)', molarHeatCapacity: 'J/(mol K)' },
+    units: { temperature: 'K', rotationalTemperature: 'K', rotationalConstantWavenumber: 'cm⁻¹', energyJ: 'J per particle', wavenumber: 'cm⁻¹', molarInternalEnergy: 'J/mol', molarEntropy: 'J/(mol K)', molarHeatCapacity: 'J/(mol K)' },
   }
-}
-
-/** ln of the exact rotational sum with energies B J(J+1) (used by thermochemistry). */
-export function linearRotorStatistics(constant: number, temperature: number) {
-  const kT = BOLTZMANN_CONSTANT * temperature
-  const peakJ = Math.sqrt(kT / (2 * constant))
-  const energies: number[] = []
-  const degeneracies: number[] = []
-  let running = 0
-  for (let J = 0; J < 1_000_000; J++) {
-    const energy = constant * J * (J + 1)
-    const term = (2 * J + 1) * Math.exp(-energy / kT)
-    energies.push(energy)
-    degeneracies.push(2 * J + 1)
-    running += term
-    if (J > peakJ + 2 && term < 1e-17 * running) break
-  }
-  return boltzmannStatistics(energies, degeneracies, temperature)
 }
 
 export const rotationKind = {
   title: 'Rotational ladder (linear rotor)',
   description: 'Exact rotational partition function, high-temperature forms and J populations of a linear molecule.',
-  version: 1,
+  version: 2,
   schema: rotationSchema,
   compute: computeRotation,
   temperatureField: 'temperature',

@@ -126,10 +126,15 @@ export function temperatureGrid(start: number, stop: number, points: number, spa
   return grid
 }
 
+/**
+ * Adds the warnings of one temperature, each kind of message once: messages that differ only in
+ * their numbers (the largest level summed, a fraction) are shown at the first temperature only.
+ */
 function addWarnings(target: string[], seen: Set<string>, source: string[], temperature: number) {
   for (const warning of source) {
-    if (seen.has(warning)) continue
-    seen.add(warning)
+    const key = warning.replace(/[-+]?\d[\d.,×⁰¹²³⁴⁵⁶⁷⁸⁹⁻e+-]*/g, '#')
+    if (seen.has(key)) continue
+    seen.add(key)
     if (seen.size <= 20) target.push(`At ${temperature.toPrecision(6)} K: ${warning}`)
   }
 }
@@ -217,7 +222,7 @@ export function createSweepKinds(kinds: Record<string, SweepableKind>) {
     sweep: {
       title: 'Temperature sweep',
       description: 'Runs another calculation over a grid of temperatures and returns the chosen outputs as series for a chart or table.',
-      version: 1,
+      version: 2,
       schema: sweepSchema,
       compute: computeSweep,
       temperatureField: null,
@@ -235,7 +240,7 @@ export function createSweepKinds(kinds: Record<string, SweepableKind>) {
     solveTemperature: {
       title: 'Temperature for a target',
       description: 'Finds the temperature at which a chosen output of another calculation reaches a target value, by bracketed root finding.',
-      version: 2,
+      version: 3,
       schema: solveTemperatureSchema,
       compute: computeSolve,
       temperatureField: null,

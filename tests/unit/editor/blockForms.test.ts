@@ -41,4 +41,20 @@ describe('block forms', () => {
     expect(parsePastedRows('just one value')).toBeNull()
     expect(parsePastedRows('one\ttwo')).toEqual([['one', 'two']])
   })
+
+  it('thermochemistry asks for the electronic levels, the formula and the nuclear-spin statistics (issue 16)', () => {
+    const fields = BLOCK_FORMS.thermochemistry!
+    const keys = fields.map(field => field.key)
+    for (const key of ['electronicLevels', 'formula', 'nuclearSpin.treatment', 'nuclearSpin.weights.even', 'nuclearSpin.weights.odd', 'nuclearSpin.weights.ee']) expect(keys).toContain(key)
+    const electronic = fields.find(field => field.key === 'electronicLevels')!
+    expect(electronic.hint).toMatch(/triplet/)
+    // The form's fields are paths the engine reads: H2 with normal spin statistics computes.
+    let input: Record<string, unknown> = { molarMass: '2.01588 g/mol', shape: 'linear', rotationalConstants: ['59.322 cm-1'], temperature: '77 K' }
+    input = writePath(input, 'nuclearSpin.treatment', 'normal')
+    input = writePath(input, 'nuclearSpin.weights.even', 1)
+    input = writePath(input, 'nuclearSpin.weights.odd', 3)
+    input = writePath(input, 'formula', 'H2')
+    input = writePath(input, 'electronicLevels', [{ energy: '0 cm⁻¹', degeneracy: 1 }])
+    expect(registry.thermochemistry!.schema.safeParse(input).success).toBe(true)
+  })
 })

@@ -19,7 +19,7 @@ describe('field-named errors', () => {
     ['unknown kind', 'nonsense', {}, 'kind', /expected one of the kinds/],
     ['missing kind', undefined, {}, 'kind', /expected one of the kinds/],
     ['input not an object', 'levels', 'text', 'input', /object/],
-    ['temperature as energy', 'levels', { levels: twoLevels, temperature: '1 eV' }, 'temperature', /expected a temperature such as '298.15 K' or '25 degC', got an energy/],
+    ['temperature as energy', 'levels', { levels: twoLevels, temperature: '1 eV' }, 'temperature', /expected a temperature such as '298.15 K' or '25 °C', got an energy/],
     ['negative absolute temperature', 'levels', { levels: twoLevels, temperature: '-5 K' }, 'temperature', /above 0 K/],
     ['zero kelvin', 'levels', { levels: twoLevels, temperature: '0 K' }, 'temperature', /above 0 K/],
     ['bare number for temperature', 'levels', { levels: twoLevels, temperature: 300 }, 'temperature', /with its unit/],

@@ -1,6 +1,6 @@
 // Behaviour of each kind, the registry and sweep/solveTemperature.
 import { describe, expect, it } from 'vitest'
-import { BOLTZMANN_CONSTANT, ENGINE_VERSION, GAS_CONSTANT, SECOND_RADIATION_CONSTANT, evaluate, listKinds, registry } from '../../../shared/thermo/index'
+import { BOLTZMANN_CONSTANT, ENGINE_VERSION, GAS_CONSTANT, PLANCK_CONSTANT, SECOND_RADIATION_CONSTANT, SPEED_OF_LIGHT, evaluate, listKinds, registry } from '../../../shared/thermo/index'
 
 // Second radiation constant in cm K, so x = c2 ν̃ / T for ν̃ in cm^-1.
 const C2 = SECOND_RADIATION_CONSTANT * 100
@@ -78,6 +78,95 @@ describe('vibration', () => {
   })
 })
 
+describe('vibration: degenerate modes (issue 16)', () => {
+  // A mode of degeneracy d has C(v+d-1, v) states at total quantum number v (Herzberg, Infrared
+  // and Raman Spectra of Polyatomic Molecules, 1945, ch. II; McQuarrie, Statistical Mechanics,
+  // ch. 8). Reference here: brute-force enumeration of d independent 1-D oscillators.
+  function enumerated(x: number, d: number, top: number): number[] {
+    const weights = new Array(top + 1).fill(0)
+    const visit = (remaining: number, used: number) => {
+      if (remaining === 0) {
+        if (used <= top) weights[used] += Math.exp(-used * x)
+        return
+      }
+      for (let n = 0; used + n <= top; n++) visit(remaining - 1, used + n)
+    }
+    visit(d, 0)
+    return weights
+  }
+  it.each([
+    ['CO2 bend ν2, d = 2', '667.4 cm^-1', 2],
+    ['CH4 ν4, d = 3', '1306 cm^-1', 3],
+  ])('%s at 1000 K: per-level fractions equal the enumerated states', (_name, wavenumber, d) => {
+    // Fundamentals: CO2 ν2 = 667.4 cm^-1, CH4 ν4 = 1306 cm^-1 (Shimanouchi, NSRDS-NBS 39, 1972; quoted from memory).
+    const result = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber, degeneracy: d }], temperature: '1000 K' } }).result
+    const mode = result.modes[0]
+    const x = (Number.parseFloat(wavenumber) * C2) / 1000
+    const weights = enumerated(x, d, 60)
+    const total = weights.reduce((sum: number, weight: number) => sum + weight, 0)
+    mode.populations.slice(0, 20).forEach((level: { v: number; degeneracy: number; fraction: number }) => {
+      expect(Math.abs(level.fraction / (weights[level.v]! / total) - 1)).toBeLessThan(1e-10)
+    })
+    expect(mode.populations[1].degeneracy).toBe(d)
+    expect(mode.populations[2].degeneracy).toBe((d * (d + 1)) / 2)
+    // The mode's q is that of d oscillators: q1^d, so the per-component q is q1.
+    expect(Math.abs(mode.partitionFunction * -Math.expm1(-x) - 1)).toBeLessThan(1e-12)
+    const sum = mode.populations.reduce((acc: number, level: { fraction: number }) => acc + level.fraction, 0)
+    expect(Math.abs(sum - 1)).toBeLessThan(1e-11)
+  })
+  it('regression: the v = 1 fraction of a doubly degenerate bend is not that of a 1-D oscillator', () => {
+    const x = (667.4 * C2) / 1000
+    const bend = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '667.4 cm^-1', degeneracy: 2 }], temperature: '1000 K' } }).result.modes[0]
+    // p1 = 2 e^{-x} (1 - e^{-x})², not e^{-x} (1 - e^{-x}).
+    expect(bend.populations[1].fraction).toBeCloseTo(2 * Math.exp(-x) * (1 - Math.exp(-x)) ** 2, 12)
+  })
+  it('an anharmonic degenerate mode uses G(v) = ω(v + d/2) - ωx(v + d/2)² with C(v+d-1, v) states', () => {
+    const result = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '600 cm^-1', anharmonicity: '3 cm^-1', degeneracy: 2 }], temperature: '2000 K' } }).result.modes[0]
+    const G = (v: number) => 600 * (v + 1) - 3 * (v + 1) ** 2
+    // Last bound level: G(v) - G(v-1) = ω - ωx(2v + 1) > 0 for v < 99.5, so v = 99.
+    expect(result.highestBoundLevel).toBe(99)
+    let q = 0
+    for (let v = 0; v <= 99; v++) q += (v + 1) * Math.exp((-(G(v) - G(0)) * C2) / 2000)
+    expect(Math.abs(result.populations[3].fraction / ((4 * Math.exp((-(G(3) - G(0)) * C2) / 2000)) / q) - 1)).toBeLessThan(1e-9)
+    expect(result.zeroPointEnergyJ / (G(0) * 100 * PLANCK_CONSTANT * SPEED_OF_LIGHT)).toBeCloseTo(1, 12)
+  })
+})
+
+describe('vibration: one rule for the largest v (issue 16)', () => {
+  it('a harmonic mode and an almost harmonic anharmonic one stop at the same v, and the rule is stated', () => {
+    const harmonic = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '1000 cm^-1' }], temperature: '1500 K' } })
+    const almost = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '1000 cm^-1', anharmonicity: '1e-9 cm^-1' }], temperature: '1500 K' } })
+    const a = harmonic.result.modes[0]
+    const b = almost.result.modes[0]
+    expect(Math.abs(a.highestQuantumNumberSummed - b.highestQuantumNumberSummed)).toBeLessThanOrEqual(1)
+    expect(a.summationStop).toBe('converged')
+    expect(b.summationStop).toBe('converged')
+    // The levels above v_max hold less than the tolerance: e^{-(v+1)x} for a 1-D harmonic ladder.
+    const x = (1000 * C2) / 1500
+    expect(Math.exp(-(a.highestQuantumNumberSummed + 1) * x)).toBeLessThan(harmonic.result.summationTolerance)
+    expect(Math.exp(-a.highestQuantumNumberSummed * x)).toBeGreaterThanOrEqual(harmonic.result.summationTolerance)
+    expect(Math.abs(b.partitionFunction / a.partitionFunction - 1)).toBeLessThan(1e-8)
+    expect(harmonic.warnings.join(' ')).toMatch(/summed up to the first v above which the levels hold less than 1×10⁻¹²/)
+  })
+  it('an anharmonic ladder hot enough to reach dissociation stops there and warns about the levels near it', () => {
+    const evaluation = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '200 cm^-1', anharmonicity: '2 cm^-1' }], temperature: '3000 K' } })
+    const mode = evaluation.result.modes[0]
+    expect(mode.summationStop).toBe('dissociation')
+    expect(mode.highestQuantumNumberSummed).toBe(49)
+    expect(evaluation.warnings.join(' ')).toMatch(/levels near dissociation/)
+  })
+  it('maxQuantum below convergence truncates harmonic and anharmonic sums alike, with a warning', () => {
+    const evaluation = evaluate({ kind: 'vibration', input: { modes: [{ wavenumber: '300 cm^-1' }, { wavenumber: '300 cm^-1', anharmonicity: '1e-9 cm^-1' }], temperature: '1000 K', maxQuantum: 3 } })
+    const [harmonic, anharmonic] = evaluation.result.modes
+    expect(harmonic.summationStop).toBe('maxQuantum')
+    expect(anharmonic.summationStop).toBe('maxQuantum')
+    expect(Math.abs(harmonic.partitionFunction / anharmonic.partitionFunction - 1)).toBeLessThan(1e-8)
+    const x = (300 * C2) / 1000
+    expect(harmonic.partitionFunction).toBeCloseTo(1 + Math.exp(-x) + Math.exp(-2 * x) + Math.exp(-3 * x), 12)
+    expect(evaluation.warnings.join(' ')).toMatch(/maxQuantum\) before it converged/)
+  })
+})
+
 describe('rotation', () => {
   it('CO-like rotor at 298.15 K: q ≈ 107.8 and J_max = 7', () => {
     // CO B0 = 1.9225 cm^-1 (Huber & Herzberg); q ≈ kT/hcB = 107.8 and J_max ≈ √(kT/2hcB) - ½ = 6.8 (Atkins, Topic 12C).
@@ -95,10 +184,29 @@ describe('rotation', () => {
     expect(result.populations[0].fraction + result.populations[1].fraction).toBeCloseTo(1, 6)
   })
   it('zero weights leave forbidden J out instead of reporting -Infinity', () => {
-    const result = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', symmetryNumber: 2, nuclearSpinWeights: { even: 1, odd: 0 }, temperature: '300 K' } }).result
+    const result = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', nuclearSpinWeights: { even: 1, odd: 0 }, temperature: '300 K' } }).result
     expect(result.populations.every((level: { J: number }) => level.J % 2 === 0)).toBe(true)
-    // With weights (1, 0) and σ = 2 the high-temperature q is T/(4Θ); the exact sum agrees closely.
+    // With weights (1, 0) the high-temperature q is T/(2Θ) (the weights stand for σ = 2); the exact sum agrees closely.
     expect(result.partitionFunction / result.correctedHighTemperaturePartitionFunction).toBeCloseTo(1, 3)
+  })
+  it('regression (issue 16): spin weights and σ = 2 do not count the symmetry twice', () => {
+    // 12C16O2: B0 = 0.39022 cm^-1 (NIST CCCBDB, quoted from memory), weights 1 (even J) and 0 (odd J)
+    // because the 16O nuclei are spinless bosons (Herzberg, Infrared and Raman Spectra, 1945, ch. I).
+    // q is the sum over the allowed (even) J alone, ≈ T/(2Θ_rot) (McQuarrie, Statistical Mechanics, eq. 6-41);
+    // the old engine divided that sum by σ = 2 again and gave half of it.
+    const withSigma = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', symmetryNumber: 2, nuclearSpinWeights: { even: 1, odd: 0 }, temperature: '300 K' } })
+    const theta = 0.39022 * C2
+    let evenSum = 0
+    for (let J = 0; J < 400; J += 2) evenSum += (2 * J + 1) * Math.exp((-theta * J * (J + 1)) / 300)
+    expect(Math.abs(withSigma.result.partitionFunction / evenSum - 1)).toBeLessThan(1e-12)
+    expect(Math.abs(withSigma.result.partitionFunction / (300 / (2 * theta)) - 1)).toBeLessThan(2e-3)
+    expect(withSigma.result.symmetryTreatment).toBe('nuclearSpinWeights')
+    expect(withSigma.result.symmetryNumberDivided).toBe(1)
+    expect(withSigma.warnings.join(' ')).toMatch(/σ = 2 is implied/)
+    // The same molecule described by σ = 2 alone has (at 300 K, Θ_rot/T ≈ 0.002) the same q and S within 1e-5 R.
+    const sigmaOnly = evaluate({ kind: 'rotation', input: { rotationalConstant: '0.39022 cm^-1', symmetryNumber: 2, temperature: '300 K' } }).result
+    expect(Math.abs(withSigma.result.partitionFunction / sigmaOnly.partitionFunction - 1)).toBeLessThan(1e-5)
+    expect(Math.abs(withSigma.result.molarEntropy - sigmaOnly.molarEntropy)).toBeLessThan(1e-5 * GAS_CONSTANT)
   })
   it('truncation by maxJ is reported', () => {
     const evaluation = evaluate({ kind: 'rotation', input: { rotationalConstant: '1.9225 cm^-1', temperature: '298.15 K', maxJ: 5 } })
@@ -171,7 +279,7 @@ describe('thermochemistry', () => {
   })
   it('warns about soft modes', () => {
     const evaluation = evaluate({ kind: 'thermochemistry', input: { molarMass: '100 g/mol', shape: 'nonlinear', rotationalConstants: ['0.1 cm^-1', '0.05 cm^-1', '0.03 cm^-1'], vibrations: [{ wavenumber: '45 cm^-1' }], temperature: '298.15 K' } })
-    expect(evaluation.warnings.join(' ')).toMatch(/below about 100 cm\^-1/)
+    expect(evaluation.warnings.join(' ')).toMatch(/below about 100 cm⁻¹/)
   })
 })
 
