@@ -101,7 +101,7 @@ describe('signing in the browser', () => {
     const witness = await signIn(witnessContext, 'priya')
     await makeKey(witness, 'signing-key-witness', 'priya')
     await witness.goto(entryUrl)
-    await witness.getByTestId('witness-view').getByText('recomputed in this browser match the record').waitFor()
+    await witness.getByTestId('witness-view').getByText(/recomputed in this browser agree with the record/).waitFor()
     await witness.screenshot({ path: `${ARTIFACTS}/signing-witness-view.png`, fullPage: true })
     await witness.getByRole('button', { name: 'Countersign' }).click()
     const witnessDialog = witness.getByRole('dialog')
