@@ -1,3 +1,5 @@
+import { readdirSync } from 'node:fs'
+import { join, relative } from 'node:path'
 import { beforeAll, describe, expect, inject, it } from 'vitest'
 import { as, Client, type DemoKey, type Reply } from '../support/http'
 import { uploadFile } from '../support/upload'
@@ -145,6 +147,14 @@ const routes: RouteCase[] = [
   { name: 'v1 record bundle without a token', method: 'GET', path: () => `/api/v1/records/${ids.amaraEntry}/bundle`, expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
   { name: 'v1 record PDF without a token', method: 'GET', path: () => `/api/v1/records/${ids.amaraEntry}/pdf`, expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
   { name: 'v1 evaluate without a token', method: 'POST', path: () => '/api/v1/calculations', body: () => ({ kind: 'levels', input: {} }), expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
+  { name: 'v1 entry without a token', method: 'GET', path: () => `/api/v1/entries/${ids.amaraEntry}`, expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
+  { name: 'v1 entries of a notebook without a token', method: 'GET', path: () => `/api/v1/notebooks/${ids.infrared}/entries`, expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
+  { name: 'v1 create an entry without a token', method: 'POST', path: () => `/api/v1/notebooks/${ids.infrared}/entries`, body: () => ({ title: 'Permission check' }), expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
+  { name: 'v1 OpenAPI description', method: 'GET', path: () => '/api/v1/openapi.json', expect: { anonymous: 200, amara: 200, priya: 200, felix: 200, hana: 200 } },
+  // A sign-in without credentials names the fields, signed in or not.
+  { name: 'sign in without credentials', method: 'POST', path: () => '/api/auth/login', body: () => ({}), expect: { anonymous: 400, amara: 400, priya: 400, felix: 400, hana: 400 } },
+  // Last: signing out ends every session of the person, so no row may come after it.
+  { name: 'sign out (everywhere)', method: 'POST', path: () => '/api/auth/logout', expect: { anonymous: 200, amara: 200, priya: 200, felix: 200, hana: 200 } },
 ]
 
 describe('route permissions', () => {
@@ -159,6 +169,19 @@ describe('route permissions', () => {
       })
     }
   }
+
+  it('has a row for every route file under server/api, /api/v1 included', () => {
+    // A route without a row has never been tried by anyone but its author: fail until it has one.
+    const folder = join(process.cwd(), 'server/api')
+    const files = (readdirSync(folder, { recursive: true }) as string[]).filter(file => /\.(get|post|patch|put|delete)\.ts$/.test(file))
+    const missing = files.filter((file) => {
+      const [, path, method] = /^(.*)\.(get|post|patch|put|delete)\.ts$/.exec(relative(folder, join(folder, file)))!
+      const pattern = new RegExp(`^/api/${path!.replace(/\/index$|^index$/, '').replace(/\[[^\]]+\]/g, '[^/]+').replace(/\./g, '\\.')}$`)
+      return !routes.some(route => route.method === method!.toUpperCase() && pattern.test(route.path().split('?')[0]!.replace(/\/$/, '')))
+    })
+    expect(files.length).toBeGreaterThan(60)
+    expect(missing, `routes with no row in the permissions table: ${missing.join(', ')}`).toEqual([])
+  })
 
   it('checks the session before the body: anonymous with a bad body gets 401, not 400', async () => {
     const reply = await new Client('198.18.0.2').post('/api/notebooks', { name: 42 })
