@@ -11,6 +11,7 @@
 import { randomBytes } from 'node:crypto'
 import { mkdirSync, renameSync, writeFileSync } from 'node:fs'
 import { join, resolve } from 'node:path'
+import { simpleParser } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 
 function option(name: string, fallback: string): string {
@@ -24,42 +25,14 @@ const folder = join(resolve(process.env.THERMOTOME_DATA_DIR ?? '.data'), 'mail')
 mkdirSync(folder, { recursive: true })
 const MAX_BYTES = 1024 * 1024
 
-/** RFC 2047 encoded words (=?UTF-8?Q?...?= and =?UTF-8?B?...?=) in a header. */
-function decodeHeader(value: string): string {
-  return value.replace(/\?=\s+=\?/g, '?==?').replace(/=\?([^?]+)\?([QqBb])\?([^?]*)\?=/g, (_all, charset: string, encoding: string, text: string) => {
-    const bytes = encoding.toUpperCase() === 'B'
-      ? Buffer.from(text, 'base64')
-      : Buffer.from(text.replace(/_/g, ' ').replace(/=([0-9A-Fa-f]{2})/g, (_m, hex: string) => String.fromCharCode(Number.parseInt(hex, 16))), 'latin1')
-    return new TextDecoder(charset.toLowerCase() === 'utf-8' ? 'utf-8' : charset).decode(bytes)
-  })
-}
-
-/** Quoted-printable (RFC 2045 §6.7) to bytes. */
-function decodeQuotedPrintable(text: string): Buffer {
-  const binary = text.replace(/=\r?\n/g, '').replace(/=([0-9A-Fa-f]{2})/g, (_m, hex: string) => String.fromCharCode(Number.parseInt(hex, 16)))
-  return Buffer.from(binary, 'latin1')
-}
-
-/** A single-part text message as nodemailer writes it: headers, blank line, encoded body. */
-function parseMessage(raw: Buffer) {
-  const source = raw.toString('latin1')
-  const split = source.search(/\r?\n\r?\n/)
-  const head = split >= 0 ? source.slice(0, split) : source
-  const body = split >= 0 ? source.slice(split).replace(/^\r?\n\r?\n/, '') : ''
-  const headers = new Map<string, string>()
-  for (const line of head.replace(/\r?\n[ \t]+/g, ' ').split(/\r?\n/)) {
-    const colon = line.indexOf(':')
-    if (colon > 0) headers.set(line.slice(0, colon).trim().toLowerCase(), line.slice(colon + 1).trim())
-  }
-  const encoding = (headers.get('content-transfer-encoding') ?? '7bit').toLowerCase()
-  const bytes = encoding === 'base64'
-    ? Buffer.from(body.replace(/\s+/g, ''), 'base64')
-    : encoding === 'quoted-printable' ? decodeQuotedPrintable(body) : Buffer.from(body, 'latin1')
+/** The parts of a message the admin page and the tests read, decoded by mailparser (MIME, RFC 2045–2047). */
+async function parseMessage(raw: Buffer) {
+  const mail = await simpleParser(raw, { skipHtmlToText: true, skipTextToHtml: true, skipImageLinks: true })
   return {
-    subject: decodeHeader(headers.get('subject') ?? ''),
-    text: new TextDecoder('utf-8').decode(bytes).replace(/\r\n/g, '\n'),
-    headerFrom: decodeHeader(headers.get('from') ?? ''),
-    headerTo: decodeHeader(headers.get('to') ?? ''),
+    subject: mail.subject ?? '',
+    text: (mail.text ?? '').replace(/\r\n/g, '\n'),
+    headerFrom: mail.from?.text ?? '',
+    headerTo: (Array.isArray(mail.to) ? mail.to.map(address => address.text).join(', ') : mail.to?.text) ?? '',
   }
 }
 
@@ -71,11 +44,17 @@ const server = new SMTPServer({
   onData(stream, session, callback) {
     const chunks: Buffer[] = []
     stream.on('data', (chunk: Buffer) => chunks.push(chunk))
-    stream.on('end', () => {
+    stream.on('end', async () => {
       if ((stream as unknown as { sizeExceeded?: boolean }).sizeExceeded)
         return callback(Object.assign(new Error('Message too large for the mail catcher'), { responseCode: 552 }))
       const receivedAt = new Date()
-      const parsed = parseMessage(Buffer.concat(chunks))
+      let parsed: Awaited<ReturnType<typeof parseMessage>>
+      try {
+        parsed = await parseMessage(Buffer.concat(chunks))
+      }
+      catch (error) {
+        return callback(Object.assign(new Error(`The mail catcher could not read the message: ${(error as Error).message}`), { responseCode: 554 }))
+      }
       const message = {
         from: session.envelope.mailFrom ? session.envelope.mailFrom.address : '',
         to: session.envelope.rcptTo.map(recipient => recipient.address),
