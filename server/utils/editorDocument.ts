@@ -10,7 +10,7 @@ export function assertEditorDocumentValid(document: unknown): DocumentIssue[] {
   const all = editorDocumentIssues(document, 200)
   const issues = storageIssues(all)
   if (issues.length === 0)
-    return all.filter(issue => issue.incomplete)
+    return all.filter(issue => issue.incomplete).map(issue => ({ ...issue, path: issue.path ? `content.${issue.path}` : 'content' }))
   const first = issues[0]!
   const where = first.blockId !== undefined || first.field !== undefined ? 'content' : `content${first.path ? `.${first.path}` : ''}`
   const message = `${where}: ${first.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`

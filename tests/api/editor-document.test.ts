@@ -81,13 +81,14 @@ describe('saving an editor document', () => {
     expect(reply.body.data.issues[0].path).toBe('content.content[0].html')
   })
 
-  it('refuses a block whose input the engine refuses, naming the block and the field', async () => {
-    const reply = await save(doc(paragraph('before'), block({ input: { levels: [{ energy: '0 cm^-1' }, { energy: '2143.3 apples' }], temperature: '296 K' } })))
-    expect(reply.status).toBe(400)
-    expect(reply.body.message).toContain("calculation block 'Ladder at 296 K'")
-    expect(reply.body.message).toContain(BLOCK_ID)
-    expect(reply.body.message).toContain('input.levels[1].energy')
-    const issue = reply.body.data.issues[0]
+  it('stores a block whose input the engine refuses as typed (a draft always saves), naming the block and the field', async () => {
+    const content = doc(paragraph('before'), block({ input: { levels: [{ energy: '0 cm^-1' }, { energy: '2143.3 apples' }], temperature: '296 K' } }))
+    const reply = await save(content)
+    expect(reply.status).toBe(200)
+    expect((await amara.get(`/api/entries/${entryId}`)).body.entry.content).toEqual(content)
+    const issue = reply.body.incompleteBlocks[0]
+    expect(issue.message).toContain("calculation block 'Ladder at 296 K'")
+    expect(issue.message).toContain(BLOCK_ID)
     expect(issue).toMatchObject({ blockId: BLOCK_ID, blockTitle: 'Ladder at 296 K', field: 'input.levels[1].energy', path: 'content.content[1].attrs.input.levels[1].energy' })
     // The same input through the engine gives the same complaint (one schema on both sides).
     let engineMessage = ''
@@ -110,14 +111,14 @@ describe('saving an editor document', () => {
     expect(stored.content[1].attrs.input.levelTable).toEqual(levelTable)
 
     const bad = await save(doc(block({ input: { levelTable: { ...levelTable, energies: energies.map((energy, index) => (index === 12 ? 'abc' : energy)) }, temperature: '296 K' } })))
-    expect(bad.status).toBe(400)
-    expect(bad.body.data.issues[0]).toMatchObject({ blockId: BLOCK_ID, field: 'input.levelTable.energies[12]' })
+    expect(bad.status).toBe(200)
+    expect(bad.body.incompleteBlocks[0]).toMatchObject({ blockId: BLOCK_ID, field: 'input.levelTable.energies[12]', incomplete: true })
   })
 
-  it('refuses a temperature without its unit in a block', async () => {
+  it('stores a temperature typed without its unit, and names it as not complete', async () => {
     const reply = await save(doc(block({ input: { levels: [{ energy: '0 cm^-1' }], temperature: '296' } })))
-    expect(reply.status).toBe(400)
-    expect(reply.body.data.issues[0].field).toBe('input.temperature')
+    expect(reply.status).toBe(200)
+    expect(reply.body.incompleteBlocks[0].field).toBe('input.temperature')
   })
 
   it('refuses an unknown kind, a bad block id, an unknown attribute and two blocks with one id', async () => {
@@ -158,9 +159,9 @@ describe('saving an editor document', () => {
     const refused = await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'Smuggled node', content: doc({ type: 'script', content: [] }) })
     expect(refused.status).toBe(400)
     expect(refused.body.data.issues[0].path).toBe('content.content[0].type')
-    const badBlock = await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'Bad block', content: doc(block({ input: { levels: [{ energy: '0 cm^-1' }], temperature: 'hot' } })) })
-    expect(badBlock.status).toBe(400)
-    expect(badBlock.body.data.issues[0]).toMatchObject({ blockId: BLOCK_ID, field: 'input.temperature' })
+    const badBlock = await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'Half-typed block', content: doc(block({ input: { levels: [{ energy: '0 cm^-1' }], temperature: 'hot' } })) })
+    expect(badBlock.status).toBe(201)
+    expect(badBlock.body.incompleteBlocks[0]).toMatchObject({ blockId: BLOCK_ID, field: 'input.temperature' })
     const accepted = await amara.post(`/api/notebooks/${infrared.id}/entries`, { title: 'With a block', content: doc(paragraph('fine'), block()) })
     expect(accepted.status).toBe(201)
     expect(accepted.body.entry.content.content[1].attrs.blockId).toBe(BLOCK_ID)

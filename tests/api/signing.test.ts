@@ -432,9 +432,10 @@ describe('tampering behind the triggers\' back', () => {
       const reply = await clients.felix.get(`/api/records/${ids.journey}/verify`)
       expect(reply.status).toBe(200)
       expect(reply.body.ok).toBe(false)
-      expect(reply.body.recordHash.ok).toBe(false)
-      expect(reply.body.record.problems.join(' ')).toMatch(/stored content differs/)
-      expect(reply.body.record.problems.join(' ')).toMatch(/input differs/)
+      // The record document that was signed is intact (its hash holds); the frozen row beside it is not.
+      expect(reply.body.recordHash.ok).toBe(true)
+      expect(reply.body.record.ok).toBe(false)
+      expect(reply.body.record.problems.join(' ')).toMatch(/stored content differs from the content signed/)
       // The signatures themselves are intact: they still cover the record that was signed.
       expect(reply.body.signatures.every((s: { ok: boolean }) => s.ok)).toBe(true)
     }
@@ -457,7 +458,8 @@ describe('tampering behind the triggers\' back', () => {
       expect(reply.body.ok).toBe(false)
       const witness = reply.body.signatures.find((s: { meaning: string }) => s.meaning === 'witnessed')
       expect(witness.ok).toBe(false)
-      expect(witness.problems.join(' ')).toMatch(/does not verify/)
+      expect(witness.problems.join(' ')).toMatch(/the signature does not match the statement/)
+      expect(witness.problems.join(' ')).toMatch(/does not match the statement hash recorded when it was signed/)
     }
     finally {
       await database.query('UPDATE signatures SET statement = $2 WHERE id = $1', [signature.id, signature.statement])

@@ -167,6 +167,29 @@ describe('the record tolerance in Chromium', () => {
     await context.close()
   }, 300_000)
 
+  it('saves a draft whose block is not complete, reloads it as typed, and refuses to sign it, naming the block', async () => {
+    const input = { temperature: '296 K', levels: [{ energy: '0 cm^-1' }, { energy: '667 cm^-1', degeneracy: 2 }] }
+    const entryId = await newEntry('Half-typed draft', [{ kind: 'levels', input, title: 'Bath levels' }], 92)
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } })
+    const page = await signIn(context, 'amara')
+    await page.goto(`${baseURL()}/entries/${entryId}`)
+    const block = page.locator('.ProseMirror [data-kind="levels"]').first()
+    await block.locator('[data-control="collapse"]').waitFor({ timeout: 60_000 })
+    await block.locator('[data-control="collapse"]').click() // generated blocks are stored collapsed
+    const temperature = block.getByLabel('Temperature', { exact: true })
+    await temperature.fill('296')
+    await page.getByRole('status').filter({ hasText: /All changes saved/ }).waitFor({ timeout: 30_000 })
+    await page.getByTestId('incomplete-blocks').filter({ hasText: /Bath levels/ }).waitFor({ timeout: 30_000 })
+    expect((await amara.get(`/api/entries/${entryId}`)).body.entry.content.content[1].attrs.input.temperature).toBe('296')
+    await page.reload()
+    expect(await page.locator('.ProseMirror [data-kind="levels"]').first().getByLabel('Temperature', { exact: true }).inputValue()).toBe('296')
+    await page.getByRole('button', { name: 'Sign this version' }).click()
+    await page.getByRole('dialog').getByText(/cannot be signed until every calculation block computes: .*"Bath levels"/).waitFor({ timeout: 60_000 })
+    await page.screenshot({ path: `${ARTIFACTS}/record-tolerance-incomplete-draft.png` })
+    expect((await amara.get(`/api/entries/${entryId}`)).body.entry.state).toBe('draft')
+    await context.close()
+  }, 300_000)
+
   afterAll(() => {
     // For the closing note: how many generated blocks the browser accepted and signed.
     console.log(`record tolerance in Chromium: ${signedBlocks} generated blocks accepted`)

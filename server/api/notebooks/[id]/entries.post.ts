@@ -12,8 +12,8 @@ export default defineEventHandler(async (event) => {
   const notebook = await readableNotebook(person, id)
   if (!(await isMember(notebook.id, person.id)))
     throw createError({ statusCode: 403, message: 'Only members of this notebook can write entries in it.' })
-  if (body.content !== undefined)
-    assertEditorDocumentValid(body.content)
+  // A draft always saves: blocks that do not compute yet are stored as typed and named.
+  const incompleteBlocks = body.content !== undefined ? assertEditorDocumentValid(body.content) : []
   const database = useDatabase()
   const entry = await database.transaction(async (tx) => {
     const [created] = await tx.insert(entries).values({
@@ -26,5 +26,5 @@ export default defineEventHandler(async (event) => {
     return created!
   })
   setResponseStatus(event, 201)
-  return { entry }
+  return { entry, incompleteBlocks }
 })
