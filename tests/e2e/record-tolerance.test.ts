@@ -73,8 +73,14 @@ beforeAll(async () => {
   amara = await as('amara')
   priya = await as('priya')
   felix = await as('felix')
-  const notebooks = (await amara.get('/api/notebooks')).body.notebooks as { id: string, name: string }[]
-  notebookId = notebooks.find(n => n.name.startsWith('Infrared'))!.id
+  // A notebook of its own, so the generated entries do not crowd the demo notebooks' lists.
+  const hana = await as('hana')
+  const made = await hana.post('/api/notebooks', { name: `Generated record-tolerance checks ${Date.now()}` })
+  expect(made.status, JSON.stringify(made.body)).toBe(201)
+  notebookId = made.body.notebook.id
+  const people = (await hana.get('/api/people')).body.people as { id: string, email: string }[]
+  const memberIds = ['amara', 'priya'].map(key => people.find(p => p.email === demoPerson(key as 'amara').email)!.id)
+  expect((await hana.put(`/api/notebooks/${notebookId}/members`, { memberIds })).status).toBe(200)
   await makeKey(amara)
   await makeKey(priya)
 }, 180_000)
