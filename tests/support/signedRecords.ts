@@ -4,6 +4,7 @@
 // chained audit trail. `signedBundle` is pure (no database); `createSignedRecord` stores one.
 import { randomUUID } from 'node:crypto'
 import pg from 'pg'
+import nacl from 'tweetnacl'
 import {
   buildBundle, buildRecord, calculationsFromContent, generateSigningKeyPair, keyFingerprint, sealSecretKey, signStatement, statementHash,
   STATEMENT_SCHEMA, bytesToBase64, type RecordBundle, type SignatureEnvelope, type SigningKeyPair,
@@ -84,6 +85,39 @@ export interface SignedBundleOptions {
   signedAt?: string
   blocks?: { kind: string, title: string, input: unknown }[]
   attachments?: { name: string, mediaType: string, size: number, sha256: string }[]
+  /** Make a bundle that every verifier must refuse (tests/api/verify-cases.test.ts). */
+  tamper?: BundleTamper
+}
+
+/**
+ * Attacks on a signature that a lenient verifier lets through:
+ * - 'malleated-signature': the author's S replaced by S + L (tweetnacl alone accepts it);
+ * - 'small-order-key': the author "signs" with the identity point as public key (R = identity,
+ *   S = 0 verifies for every message);
+ * - 'witness-before-author': the witness's countersignature dated an hour before the author's.
+ */
+export type BundleTamper = 'malleated-signature' | 'small-order-key' | 'witness-before-author'
+
+/** The Ed25519 identity point (y = 1), a public key of order 1. */
+export const SMALL_ORDER_PUBLIC_KEY = Uint8Array.from([1, ...new Array(31).fill(0)])
+const GROUP_ORDER = 2n ** 252n + 27742317777372353535851937790883648493n
+
+/** The signature with S + L in place of S (RFC 8032 §5.1.7 refuses it; tweetnacl does not). */
+export function malleatedSignature(signatureBase64: string): string {
+  const bytes = Uint8Array.from(Buffer.from(signatureBase64, 'base64'))
+  let s = 0n
+  for (let index = 63; index >= 32; index--) s = (s << 8n) | BigInt(bytes[index]!)
+  s += GROUP_ORDER
+  for (let index = 32; index < 64; index++) {
+    bytes[index] = Number(s & 0xffn)
+    s >>= 8n
+  }
+  return bytesToBase64(bytes)
+}
+
+/** A fixture key whose public key is of small order; it has no secret key worth the name. */
+export async function smallOrderKey(createdAt = '2020-01-01T00:00:00.000Z'): Promise<FixtureKey> {
+  return { pair: { publicKey: SMALL_ORDER_PUBLIC_KEY, secretKey: new Uint8Array(64) }, fingerprint: await keyFingerprint(SMALL_ORDER_PUBLIC_KEY), createdAt, id: randomUUID() }
 }
 
 export interface SignedBundle {
@@ -113,14 +147,18 @@ export async function signedBundle(options: SignedBundleOptions): Promise<Signed
     meaning: 'authored' as const, statement: 'I authored this entry and its calculations are as I intended them.',
     signedAt, challenge: randomUUID(),
   }
-  const authored = await signStatement(authorStatement, options.authorKey.pair.secretKey)
+  const authored = options.tamper === 'small-order-key'
+    // R = identity, S = 0: [S]B = R + [k]A holds for any message when A is the identity.
+    ? { statement: authorStatement, signature: bytesToBase64(Uint8Array.from([...SMALL_ORDER_PUBLIC_KEY, ...new Array(32).fill(0)])), publicKey: bytesToBase64(SMALL_ORDER_PUBLIC_KEY) }
+    : await signStatement(authorStatement, options.authorKey.pair.secretKey)
+  if (options.tamper === 'malleated-signature') authored.signature = malleatedSignature(authored.signature)
   const authoredHash = await statementHash(authored.statement)
   envelopes.push({ envelope: authored, signer: options.author, key: options.authorKey, statementHash: authoredHash })
   if (options.witness && options.witnessKey) {
     const witnessed = await signStatement({
       schema: STATEMENT_SCHEMA as typeof STATEMENT_SCHEMA, recordHash, signer: options.witness, keyFingerprint: options.witnessKey.fingerprint,
       meaning: 'witnessed', statement: 'I have read and understood this entry.',
-      signedAt: new Date(Date.parse(signedAt) + 3_600_000).toISOString(), challenge: randomUUID(), countersigns: authoredHash,
+      signedAt: new Date(Date.parse(signedAt) + (options.tamper === 'witness-before-author' ? -3_600_000 : 3_600_000)).toISOString(), challenge: randomUUID(), countersigns: authoredHash,
     }, options.witnessKey.pair.secretKey)
     envelopes.push({ envelope: witnessed, signer: options.witness, key: options.witnessKey, statementHash: await statementHash(witnessed.statement) })
   }
@@ -164,6 +202,19 @@ async function keyFor(client: pg.ClientBase, person: FixturePerson): Promise<Fix
   return key
 }
 
+/** The small-order key stored for a person as a key that was active in 2020–2099 (retired, so it does not replace their key). */
+async function storedSmallOrderKey(client: pg.ClientBase, person: FixturePerson): Promise<FixtureKey> {
+  const key = await smallOrderKey()
+  const { rows } = await client.query('SELECT id FROM signing_keys WHERE fingerprint = $1', [key.fingerprint])
+  if (rows[0]) return { ...key, id: rows[0].id as string }
+  await client.query(
+    `INSERT INTO signing_keys (id, person_id, public_key, fingerprint, sealed_secret_key, created_at, confirmed_at, retired_at, retired_reason)
+     VALUES ($1, $2, $3, $4, $5, $6, $6, '2099-01-01T00:00:00Z', 'a test fixture of small order')`,
+    [key.id, person.id, bytesToBase64(key.pair.publicKey), key.fingerprint, JSON.stringify(await sealSecretKey(nacl.randomBytes(64), 'fixture passphrase')), new Date(key.createdAt)],
+  )
+  return key
+}
+
 export interface StoredRecordOptions {
   /** Demo e-mail of the author (a member of the notebook). */
   authorEmail: string
@@ -174,6 +225,7 @@ export interface StoredRecordOptions {
   signedAt?: string
   blocks?: SignedBundleOptions['blocks']
   attachments?: SignedBundleOptions['attachments']
+  tamper?: BundleTamper
 }
 
 export interface StoredRecord extends SignedBundle { versionId: string, notebookId: string, authorId: string, witnessId: string | null }
@@ -194,9 +246,9 @@ export async function createSignedRecord(databaseURL: string, options: StoredRec
     if (!notebooks[0]) throw new Error(`no notebook ${options.notebook}`)
     const notebook = notebooks[0] as { id: string, name: string }
     await client.query('BEGIN')
-    const authorKey = await keyFor(client, author)
+    const authorKey = options.tamper === 'small-order-key' ? await storedSmallOrderKey(client, author) : await keyFor(client, author)
     const witnessKey = witness ? await keyFor(client, witness) : undefined
-    const made = await signedBundle({ notebook, title: options.title, author, authorKey, witness, witnessKey, signedAt: options.signedAt, blocks: options.blocks, attachments: options.attachments })
+    const made = await signedBundle({ notebook, title: options.title, author, authorKey, witness, witnessKey, signedAt: options.signedAt, blocks: options.blocks, attachments: options.attachments, tamper: options.tamper })
     const signedAt = new Date(made.envelopes[0]!.envelope.statement.signedAt)
     // No state column: the state follows from the frozen version and its signatures.
     await client.query(
@@ -225,8 +277,9 @@ export async function createSignedRecord(databaseURL: string, options: StoredRec
       if (envelope.statement.meaning === 'authored') authorSignatureId = signature!.id
       await appendAudit(client, {
         occurredAt: new Date(envelope.statement.signedAt), actorId: signer.id, actorEmail: signer.email,
-        action: envelope.statement.meaning === 'authored' ? 'entry_signed' : 'entry_countersigned',
-        subjectType: 'entry', subjectId: made.entryId, details: { version: 1, recordHash: made.bundle.recordHash, meaning: envelope.statement.meaning },
+        // The actions and details the signing routes write (server/utils/transitions.ts), which verification looks for.
+        action: envelope.statement.meaning === 'authored' ? 'entry_signed' : 'entry_witnessed',
+        subjectType: 'entry', subjectId: made.entryId, details: { version: 1, title: options.title, recordHash: made.bundle.recordHash, signatureId: signature!.id, statementHash: hash, keyFingerprint: key.fingerprint },
       })
     }
     await client.query('COMMIT')
