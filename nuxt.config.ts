@@ -51,8 +51,11 @@ export default defineNuxtConfig({
     esbuild: { options: { target: 'es2022' } },
     serverAssets: [
       { baseName: 'fonts', dir: '../node_modules/@fontsource/atkinson-hyperlegible/files' },
-      // Greek fallback for record PDFs (Atkinson Hyperlegible has no Greek).
-      { baseName: 'notoFonts', dir: '../node_modules/@fontsource/noto-sans/files', pattern: 'noto-sans-greek-*.woff' },
+      // Greek and Cyrillic fallback for record PDFs (Atkinson Hyperlegible has neither).
+      { baseName: 'notoFonts', dir: '../node_modules/@fontsource/noto-sans/files', pattern: 'noto-sans-{greek,cyrillic}-{400,700}-*.woff' },
+      // Japanese and Chinese: the numbered slices at the two weights the PDF uses (server/pdf/fonts.ts).
+      { baseName: 'cjkFonts', dir: '../node_modules/@fontsource/noto-sans-jp/files', pattern: 'noto-sans-jp-[0-9]*-{400,700}-normal.woff' },
+      { baseName: 'cjkFonts', dir: '../node_modules/@fontsource/noto-sans-sc/files', pattern: 'noto-sans-sc-[0-9]*-{400,700}-normal.woff' },
       { baseName: 'migrations', dir: './database/migrations' },
     ],
   },

@@ -135,10 +135,50 @@ export const signInThrottle = pgTable('sign_in_throttle', {
   lockedUntil: timestamp('locked_until', { withTimezone: true, mode: 'date' }),
 })
 
+/**
+ * The open editing session of a draft: autosaves are counted here, not each audited. The
+ * session becomes one `entry_edited` audit event (saves, first and last content hash) when it
+ * closes: at a save more than five minutes after the one before, when any other event about the
+ * entry is audited (signing, a data file attached), or by the idle sweep (server/utils/editSessions.ts).
+ * The row is deleted as its event is appended; audit rows themselves are never updated.
+ */
+export const entryEditSessions = pgTable('entry_edit_sessions', {
+  entryId: uuid('entry_id').primaryKey().references(() => entries.id),
+  personId: uuid('person_id').notNull().references(() => people.id),
+  personEmail: text('person_email').notNull(),
+  version: integer('version').notNull(),
+  // Milliseconds, as a JS Date holds them: the close compares the start time it read.
+  startedAt: timestamp('started_at', { withTimezone: true, mode: 'date', precision: 3 }).notNull(),
+  lastSavedAt: timestamp('last_saved_at', { withTimezone: true, mode: 'date', precision: 3 }).notNull(),
+  saves: integer('saves').notNull(),
+  firstLockVersion: integer('first_lock_version').notNull(),
+  lastLockVersion: integer('last_lock_version').notNull(),
+  /** SHA-256 of the canonical JSON of { title, content } after the session's first and last save. */
+  firstContentHash: text('first_content_hash').notNull(),
+  lastContentHash: text('last_content_hash').notNull(),
+  titleChanged: boolean('title_changed').notNull().default(false),
+}, table => [index('entry_edit_sessions_last_saved').on(table.lastSavedAt)])
+
+/**
+ * How a person reads numbers on the page: significant figures and display units. A null column
+ * means the default (six figures; the units the presentation uses by default). The record PDF
+ * and the signed record never use these (full precision, SI and stated units).
+ */
+export const personPreferences = pgTable('person_preferences', {
+  personId: uuid('person_id').primaryKey().references(() => people.id),
+  significantFigures: integer('significant_figures'),
+  energyUnit: text('energy_unit'),
+  pressureUnit: text('pressure_unit'),
+  temperatureUnit: text('temperature_unit'),
+  updatedAt,
+})
+
 export type Person = typeof people.$inferSelect
 export type Notebook = typeof notebooks.$inferSelect
 export type Entry = typeof entries.$inferSelect
 export type AuditEvent = typeof auditEvents.$inferSelect
+export type EntryEditSession = typeof entryEditSessions.$inferSelect
+export type PersonPreferences = typeof personPreferences.$inferSelect
 export type Role = (typeof roleEnum.enumValues)[number]
 
 // ---------------------------------------------------------------------------------------

@@ -3,6 +3,7 @@
 // same record always gives the same document (and, with fixed metadata, the same bytes).
 import { canonicalJson, formatFingerprint, type Calculation, type RecordBundle, type VerificationReport } from '../../shared/records'
 import { auditActionWords } from '../../shared/audit/actions'
+import { auditDetailsWords } from '../../shared/audit/details'
 import { columnHeader, presentResult, type PresentedRow, type PresentedTable } from '../../shared/present'
 import type { VersionStatus } from '../../shared/records/lifecycle'
 import { registry } from '../../shared/thermo'
@@ -322,14 +323,14 @@ function attachmentsBlock(bundle: RecordBundle): Content {
   }
 }
 
-function detailsText(details: unknown): string {
-  if (details === null || typeof details !== 'object') return details === undefined ? '' : String(details)
-  const entries = Object.entries(details as Record<string, unknown>)
-  const text = entries.map(([key, value]) => `${key}: ${typeof value === 'object' ? JSON.stringify(value) : String(value)}`).join('; ')
+/** An event's details in words (shared/audit/details.ts), cut to a length a table cell holds. */
+function detailsText(event: PdfAuditEvent, entryTitle: string): string {
+  const details = event.details as Record<string, unknown> | null
+  const text = auditDetailsWords(event.action, details, details?.title === entryTitle ? ['title'] : [])
   return text.length > 400 ? `${text.slice(0, 399)}…` : text
 }
 
-function auditBlock(events: PdfAuditEvent[]): Content {
+function auditBlock(events: PdfAuditEvent[], entryTitle: string): Content {
   if (!events.length) return para('No audit events are recorded for this entry.', { style: 'small' })
   return {
     table: {
@@ -342,7 +343,7 @@ function auditBlock(events: PdfAuditEvent[]): Content {
           String(event.sequence), para(utcText(event.occurredAt).replace(' UTC', ' +00:00')),
           { stack: [para(auditActionWords(event.action)), para(breakable(event.action), { fontSize: 6.5, color: INK_SOFT })] },
           { stack: [para(breakable(event.actorName ?? (event.actorEmail ? event.actorEmail : 'system'))), ...(event.actorName && event.actorEmail ? [para(breakable(event.actorEmail), { fontSize: 6.5, color: INK_SOFT })] : [])] },
-          para(breakable(detailsText(event.details))),
+          para(breakable(detailsText(event, entryTitle))),
         ]),
       ],
     },
@@ -413,7 +414,7 @@ export function recordDocumentDefinition(input: RecordPdfInput, bundleJson: stri
     para('Attached data files', { style: 'sectionTitle' }),
     attachmentsBlock(bundle),
     para('Audit events of this entry', { style: 'sectionTitle' }),
-    auditBlock(auditEvents),
+    auditBlock(auditEvents, entry.title),
   ]
 
   return {
@@ -443,17 +444,23 @@ export function recordDocumentDefinition(input: RecordPdfInput, bundleJson: stri
         modifiedDate: created,
       },
     },
+    // Every page names the record, its full hash and where it stands: a page alone is traceable.
     header: (currentPage: number) => ({
-      columns: [
-        { text: 'Thermotome signed record', bold: true, width: 'auto' },
-        { text: textRuns(headerText), alignment: 'right' },
+      stack: [
+        {
+          columns: [
+            { text: 'Thermotome signed record', bold: true, width: 'auto' },
+            { text: textRuns(headerText), alignment: 'right' },
+          ],
+        },
+        { text: `Record hash (SHA-256) ${bundle.recordHash}`, fontSize: 7, margin: [0, 1, 0, 0] },
       ],
-      margin: [40, 22, 40, 0], fontSize: 8, color: currentPage === 1 ? INK_SOFT : INK_FAINT,
+      margin: [40, 18, 40, 0], fontSize: 8, color: currentPage === 1 ? INK_SOFT : INK_FAINT,
     }),
     footer: (currentPage: number, pageCount: number) => ({
       columns: [
-        { text: `Record hash ${bundle.recordHash.slice(0, 16)}… · verify with the attached bundle`, width: '*' },
-        { text: `Page ${currentPage} of ${pageCount}`, alignment: 'right', width: 90 },
+        { text: `Record ${entry.id} · version ${entry.version} · hash ${bundle.recordHash.slice(0, 16)}… · verify with the attached bundle`, width: '*' },
+        { text: `Page ${currentPage} of ${pageCount}`, alignment: 'right', width: 70 },
       ],
       margin: [40, 18, 40, 0], fontSize: 8, color: INK_FAINT,
     }),

@@ -5,11 +5,17 @@ import { createRequire } from 'node:module'
 import pdfmake from 'pdfmake'
 import pdfmakeDocumentModule from 'pdfmake/js/PDFDocument.js'
 import { canonicalJson } from '../../shared/records'
-import { ATKINSON_FILES, NOTO_GREEK_FILES, PDF_FONT_FAMILIES, type PdfFontFiles } from './fonts'
+import { ATKINSON_FILES, cjkFontFiles, NOTO_FILES, PDF_FONT_FAMILIES, type PdfFontFiles, type PdfFontLoader } from './fonts'
 import { recordDocumentDefinition, type RecordPdfInput } from './document'
+import type { CjkFamily } from './text'
 import { woffToSfnt } from './woff'
 
+/** Virtual file name → unpacked font bytes, for every font loaded so far. */
 let fontBytes: Map<string, Buffer> | null = null
+let loadFontFile: PdfFontLoader | null = null
+let parseOnce: ((buffer: Buffer) => void) | null = null
+const fontFamilies: Record<string, Record<string, string>> = { ...PDF_FONT_FAMILIES }
+const cjkLoading = new Map<CjkFamily, Promise<void>>()
 
 const grid = {
   hLineWidth: () => 0.5,
@@ -37,18 +43,19 @@ const shaded = {
  * every new document registers the names with their bytes first (registerFont), and text and
  * charts share one embedded font per style.
  */
-export function setupPdfFonts(files: PdfFontFiles): void {
+export function setupPdfFonts(files: PdfFontFiles, loader: PdfFontLoader): void {
   if (fontBytes) return
   const bytes = new Map<string, Buffer>()
-  for (const name of [...ATKINSON_FILES, ...NOTO_GREEK_FILES]) {
+  for (const name of [...ATKINSON_FILES, ...NOTO_FILES]) {
     const data = files[name]
     if (!data) throw new Error(`the PDF font ${name} is missing`)
     const buffer = Buffer.from(woffToSfnt(data))
     bytes.set(name, buffer)
     pdfmake.virtualfs.writeFileSync(name, buffer)
   }
-  parseEachFontOnce(new Set(bytes.values()))
-  pdfmake.setFonts(PDF_FONT_FAMILIES)
+  parseOnce = parseEachFontOnce(new Set(bytes.values()))
+  loadFontFile = loader
+  pdfmake.setFonts(fontFamilies)
   pdfmake.setUrlAccessPolicy(() => false)
   pdfmake.setLocalAccessPolicy(() => false)
   pdfmake.addTableLayouts({ recordGrid: grid, recordShaded: shaded })
@@ -75,7 +82,7 @@ export const pdfFontsReady = () => fontBytes !== null
  * It acts on the fontkit instance pdfkit itself loads (CommonJS, resolved from pdfkit's folder).
  */
 interface FontFormat { probe(buffer: Uint8Array): boolean }
-function parseEachFontOnce(ours: Set<Buffer>): void {
+function parseEachFontOnce(ours: Set<Buffer>): (buffer: Buffer) => void {
   const fromHere = createRequire(import.meta.url)
   const fontkit = createRequire(fromHere.resolve('pdfkit'))('fontkit') as {
     create: (buffer: Uint8Array) => object
@@ -98,6 +105,50 @@ function parseEachFontOnce(ours: Set<Buffer>): void {
     return true
   }
   fontkit.registerFormat(ParsedFont)
+  return (buffer: Buffer) => {
+    parsed.set(buffer, fontkit.create(buffer)) // parsed before it is marked ours
+    ours.add(buffer)
+  }
+}
+
+/** Loads a CJK slice (both weights) into pdfmake the first time a document uses it. */
+function loadCjkFamily(family: CjkFamily): Promise<void> {
+  let loading = cjkLoading.get(family)
+  if (!loading) {
+    loading = (async () => {
+      const files = cjkFontFiles(family)
+      for (const name of new Set(Object.values(files))) {
+        if (fontBytes!.has(name)) continue
+        const buffer = Buffer.from(woffToSfnt(await loadFontFile!(name)))
+        pdfmake.virtualfs.writeFileSync(name, buffer)
+        parseOnce!(buffer)
+        fontBytes!.set(name, buffer)
+      }
+      fontFamilies[family] = files
+    })().catch((error) => { cjkLoading.delete(family); throw error })
+    cjkLoading.set(family, loading)
+  }
+  return loading
+}
+
+/** The CJK slices a document definition names, in its text runs and its chart SVG. */
+export function cjkFamiliesIn(definition: unknown): CjkFamily[] {
+  const found = new Set<CjkFamily>()
+  const visit = (value: unknown): void => {
+    if (typeof value === 'string') {
+      if (value.startsWith('<svg')) for (const match of value.matchAll(/font-family="(Noto(?:JP|SC)\d+)"/g)) found.add(match[1] as CjkFamily)
+      return
+    }
+    if (Array.isArray(value)) { value.forEach(visit); return }
+    if (value && typeof value === 'object') {
+      for (const [key, inner] of Object.entries(value)) {
+        if (key === 'font' && typeof inner === 'string' && /^Noto(?:JP|SC)\d+$/.test(inner)) found.add(inner as CjkFamily)
+        else if (key !== 'files') visit(inner)
+      }
+    }
+  }
+  visit(definition)
+  return [...found].sort()
 }
 
 /**
@@ -108,6 +159,7 @@ export async function renderRecordPdfBytes(input: RecordPdfInput): Promise<Buffe
   if (!fontBytes) throw new Error('setupPdfFonts must run before a PDF is rendered')
   const bundleJson = canonicalJson(input.bundle as never)
   const definition = recordDocumentDefinition(input, bundleJson)
+  await Promise.all(cjkFamiliesIn(definition).map(loadCjkFamily))
   const document = pdfmake.createPdf(definition)
   return await document.getBuffer()
 }

@@ -1,10 +1,9 @@
 // Chart SVG for pdfkit: the shared charts write units such as "cm⁻¹" and names with Greek
 // letters as plain text, which the embedded Atkinson font cannot draw. Each text segment is
 // cut into the same runs as the PDF's own text (text.ts) and written back as tspans: raised
-// or lowered ordinary characters for superscripts and subscripts, Noto Sans for Greek.
+// or lowered ordinary characters for superscripts and subscripts, Noto Sans for Greek,
+// Cyrillic and CJK (the font-family is the pdfmake family name).
 import { textRuns } from './text'
-
-const FAMILY_NAMES = { Atkinson: 'Atkinson', AtkinsonExt: 'AtkinsonExt', NotoGreek: 'NotoGreek' } as const
 
 function rewriteSegment(segment: string, size: number): string {
   const runs = textRuns(segment)
@@ -18,7 +17,7 @@ function rewriteSegment(segment: string, size: number): string {
     const attributes: string[] = []
     if (target !== offset) attributes.push(`dy="${Math.round((target - offset) * 10) / 10}"`)
     if (run.sup || run.sub) attributes.push(`font-size="${smaller}"`)
-    if (run.font) attributes.push(`font-family="${FAMILY_NAMES[run.font]}"`)
+    if (run.font) attributes.push(`font-family="${run.font}"`)
     offset = target
     out += attributes.length ? `<tspan ${attributes.join(' ')}>${run.text}</tspan>` : run.text
   }

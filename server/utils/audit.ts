@@ -1,10 +1,12 @@
-import { asc, desc, gt, sql } from 'drizzle-orm'
+import { and, asc, desc, eq, gt, sql } from 'drizzle-orm'
 import type { H3Event } from 'h3'
-import { auditEvents, type AuditEvent } from '../database/schema'
+import { auditEvents, entryEditSessions, type AuditEvent, type EntryEditSession } from '../database/schema'
 import { auditRowHash, GENESIS_HASH } from '../database/audit-chain'
 import type { Database } from './db'
+import { READ_ONLY_RECORD_ACTIONS } from './recordBundle'
 
 const AUDIT_LOCK = 874202
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
 
 export interface AuditInput {
   action: string
@@ -15,11 +17,47 @@ export interface AuditInput {
   details?: Record<string, unknown>
 }
 
-type Executor = Pick<Database, 'execute' | 'select' | 'insert'>
+type Executor = Pick<Database, 'execute' | 'select' | 'insert' | 'delete'>
+
+/** The action of one editing session's autosaves, appended when the session closes. */
+export const ENTRY_EDITED = 'entry_edited'
+
+/**
+ * Closes an editing session: deletes its row and appends its one `entry_edited` event, in the
+ * caller's transaction. The conditional DELETE decides who closes it, so a save, another
+ * event and the idle sweep on several servers never append the same session twice.
+ */
+export async function closeEditSession(tx: Executor, session: Pick<EntryEditSession, 'entryId' | 'startedAt'>, closedBy: 'next_session' | 'other_event' | 'idle', idleMinutes?: number): Promise<AuditEvent | null> {
+  const [closed] = await tx.delete(entryEditSessions).where(and(
+    eq(entryEditSessions.entryId, session.entryId), eq(entryEditSessions.startedAt, session.startedAt),
+    // The sweep re-checks idleness on the row it deletes: a save that just landed keeps its session open.
+    idleMinutes === undefined ? undefined : sql`${entryEditSessions.lastSavedAt} < now() - make_interval(mins => ${idleMinutes})`,
+  )).returning()
+  if (!closed) return null
+  return appendInTransaction(tx, {
+    action: ENTRY_EDITED, actorId: closed.personId, actorEmail: closed.personEmail, subjectType: 'entry', subjectId: closed.entryId,
+    details: {
+      version: closed.version, saves: closed.saves,
+      firstSavedAt: closed.startedAt.toISOString(), lastSavedAt: closed.lastSavedAt.toISOString(),
+      firstContentHash: closed.firstContentHash, lastContentHash: closed.lastContentHash,
+      fromLockVersion: closed.firstLockVersion, toLockVersion: closed.lastLockVersion,
+      titleChanged: closed.titleChanged, closedBy,
+    },
+  })
+}
 
 async function appendInTransaction(tx: Executor, input: AuditInput): Promise<AuditEvent> {
   // One writer at a time extends the chain, whichever app server it runs on.
   await tx.execute(sql`SELECT pg_advisory_xact_lock(${AUDIT_LOCK})`)
+  // Anything else that happens to an entry (signing, a data file) first closes its open editing
+  // session, so the trail reads "edited, then signed" in the order it happened. Reading a
+  // record (PDF, bundle, verification) changes nothing and leaves the session open.
+  const subjectId = input.subjectId ?? ''
+  if (input.subjectType === 'entry' && input.action !== ENTRY_EDITED && !READ_ONLY_RECORD_ACTIONS.includes(input.action) && UUID.test(subjectId)) {
+    const [open] = await tx.select({ entryId: entryEditSessions.entryId, startedAt: entryEditSessions.startedAt })
+      .from(entryEditSessions).where(eq(entryEditSessions.entryId, subjectId)).limit(1)
+    if (open) await closeEditSession(tx, open, 'other_event')
+  }
   const [last] = await tx.select({ hash: auditEvents.hash }).from(auditEvents)
     .orderBy(desc(auditEvents.sequence)).limit(1)
   const row = {

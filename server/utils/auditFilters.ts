@@ -1,4 +1,4 @@
-import { and, eq, gte, ilike, lte, type SQL } from 'drizzle-orm'
+import { and, eq, gte, ilike, lte, sql, type SQL } from 'drizzle-orm'
 import type { AuditFilters } from '#shared/schemas/audit'
 import { auditEvents } from '../database/schema'
 
@@ -24,4 +24,19 @@ export function csvCell(value: unknown): string {
   let text = value === null || value === undefined ? '' : value instanceof Date ? value.toISOString() : typeof value === 'object' ? JSON.stringify(value) : String(value)
   if (/^[=+\-@\t\r]/.test(text)) text = `'${text}`
   return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text
+}
+
+const UUID_PATTERN = '^[0-9a-fA-F]{8}-[0-9a-fA-F]{4}-[0-9a-fA-F]{4}-[0-9a-fA-F]{4}-[0-9a-fA-F]{12}$'
+
+/**
+ * The audit columns people read beside the stored ones: the actor's current name and the
+ * subject's (an entry's title, a person's or a notebook's name), looked up by primary key.
+ */
+export const auditReadableColumns = {
+  actorName: sql<string | null>`(SELECT name FROM people WHERE people.id = ${auditEvents.actorId})`,
+  subjectName: sql<string | null>`CASE WHEN ${auditEvents.subjectId} ~ ${UUID_PATTERN} THEN CASE ${auditEvents.subjectType}
+    WHEN 'entry' THEN (SELECT title FROM entries WHERE entries.id = ${auditEvents.subjectId}::uuid)
+    WHEN 'person' THEN (SELECT name FROM people WHERE people.id = ${auditEvents.subjectId}::uuid)
+    WHEN 'notebook' THEN (SELECT name FROM notebooks WHERE notebooks.id = ${auditEvents.subjectId}::uuid)
+  END END`,
 }

@@ -1,19 +1,22 @@
 import { verifyBundle } from '#shared/records'
 import { ed25519Verify } from './ed25519'
-import { ATKINSON_FILES, NOTO_GREEK_FILES, type PdfFontFiles } from '../pdf/fonts'
+import { ATKINSON_FILES, NOTO_FILES, type PdfFontFiles } from '../pdf/fonts'
 import { pdfFontsReady, renderRecordPdfBytes, setupPdfFonts } from '../pdf/render'
 import type { ExportRecord } from './recordBundle'
 
 let loading: Promise<void> | null = null
 
-/** Reads the font files from Nitro's server assets ('fonts' and 'notoFonts') once. */
+/**
+ * Reads the font files from Nitro's server assets ('fonts' and 'notoFonts') once; the CJK
+ * slices ('cjkFonts') are read when a document first needs one.
+ */
 async function loadPdfFonts(): Promise<void> {
   if (pdfFontsReady()) return
   loading ??= (async () => {
     const files: PdfFontFiles = {}
     for (const name of ATKINSON_FILES) files[name] = await readFontAsset('assets:fonts', name)
-    for (const name of NOTO_GREEK_FILES) files[name] = await readFontAsset('assets:notoFonts', name)
-    setupPdfFonts(files)
+    for (const name of NOTO_FILES) files[name] = await readFontAsset('assets:notoFonts', name)
+    setupPdfFonts(files, name => readFontAsset('assets:cjkFonts', name))
   })().catch((error) => { loading = null; throw error })
   await loading
 }

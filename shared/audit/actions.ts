@@ -6,6 +6,7 @@
 export const AUDIT_ACTION_WORDS: Readonly<Record<string, string>> = {
   entry_created: 'Entry started',
   entry_saved: 'Saved',
+  entry_edited: 'Edited',
   entry_signed: 'Signed by the author',
   witness_requested: 'Witness requested',
   entry_witnessed: 'Countersigned',
@@ -17,6 +18,7 @@ export const AUDIT_ACTION_WORDS: Readonly<Record<string, string>> = {
   record_exported: 'Record PDF exported',
   record_bundle_downloaded: 'Record bundle downloaded',
   record_verified: 'Record verified',
+  records_searched: 'Records searched',
   mail_failed: 'E-mail could not be sent',
   sign_in: 'Signed in',
   sign_in_failed: 'Sign-in refused',

@@ -408,7 +408,7 @@ describe('audit trail CSV', () => {
     expect(reply.status).toBe(200)
     expect(reply.headers.get('content-type')).toMatch(/^text\/csv/)
     const lines = (reply.body as string).trim().split('\r\n')
-    expect(lines[0]).toBe('sequence,occurredAt,action,actorEmail,actorId,subjectType,subjectId,details,previousHash,hash')
+    expect(lines[0]).toBe('sequence,occurredAt,action,actorEmail,actorId,subjectType,subjectId,details,previousHash,hash,actorName,subjectName')
     expect(lines).toHaveLength(2)
     expect(lines[1]).toContain(`"'=HYPERLINK(""http://example.invalid"",""x"")"`)
     expect(lines[1]).toContain('"a,""b"""')

@@ -13,10 +13,10 @@ import { join } from 'node:path'
 import { ZipArchive } from 'archiver'
 import { canonicalJson, verifyBundle } from '../../shared/records'
 import { renderRecordPdfBytes, setupPdfFonts } from '../../server/pdf/render'
-import { pdfFontFilesFromNodeModules } from '../support/pdfFonts'
+import { pdfFontFilesFromNodeModules, pdfFontLoaderFromNodeModules } from '../support/pdfFonts'
 import { fixtureKey, signedBundle } from '../support/signedRecords'
 
-setupPdfFonts(pdfFontFilesFromNodeModules())
+setupPdfFonts(pdfFontFilesFromNodeModules(), pdfFontLoaderFromNodeModules)
 const author = { id: 'a1', name: 'Dr Amara Lindqvist', email: 'amara.lindqvist@kestrel-ridge.example' }
 const witness = { id: 'w1', name: 'Priya Natarajan', email: 'priya.natarajan@kestrel-ridge.example' }
 const authorKey = await fixtureKey()

@@ -1,8 +1,9 @@
-import { asc, gt, and } from 'drizzle-orm'
+import { and, asc, getTableColumns, gt } from 'drizzle-orm'
 import { auditFiltersSchema } from '#shared/schemas/audit'
 import { auditEvents } from '../../database/schema'
 
-const COLUMNS = ['sequence', 'occurredAt', 'action', 'actorEmail', 'actorId', 'subjectType', 'subjectId', 'details', 'previousHash', 'hash'] as const
+// The stored columns first (integrators read them), then the names people read beside the ids.
+const COLUMNS = ['sequence', 'occurredAt', 'action', 'actorEmail', 'actorId', 'subjectType', 'subjectId', 'details', 'previousHash', 'hash', 'actorName', 'subjectName'] as const
 
 /** The filtered audit trail as CSV, oldest first, written in batches (escaped, formula-safe). */
 export default defineEventHandler(async (event) => {
@@ -14,7 +15,7 @@ export default defineEventHandler(async (event) => {
   const lines: string[] = [COLUMNS.join(',')]
   let after = 0
   for (;;) {
-    const rows = await database.select().from(auditEvents).where(and(where, gt(auditEvents.sequence, after))).orderBy(asc(auditEvents.sequence)).limit(5000)
+    const rows = await database.select({ ...getTableColumns(auditEvents), ...auditReadableColumns }).from(auditEvents).where(and(where, gt(auditEvents.sequence, after))).orderBy(asc(auditEvents.sequence)).limit(5000)
     for (const row of rows) lines.push(COLUMNS.map(column => csvCell(row[column])).join(','))
     if (rows.length < 5000) break
     after = rows[rows.length - 1]!.sequence

@@ -25,10 +25,11 @@ export default defineEventHandler(async (event) => {
     }).where(and(eq(entries.id, id), eq(entries.lockVersion, body.lockVersion), eq(entryStateSql(), 'draft'))).returning()
     if (!row)
       return undefined
-    await recordAudit(database, {
-      action: 'entry_saved', actorId: person.id, actorEmail: person.email, subjectType: 'entry', subjectId: id,
-      details: { lockVersion: row.lockVersion, titleChanged: body.title !== undefined && body.title !== entry.title },
-    }, tx)
+    // Autosaves are counted in the editing session; the session is audited once, when it closes.
+    await noteEntrySave(tx, {
+      entryId: id, personId: person.id, personEmail: person.email, version: row.version, lockVersion: row.lockVersion,
+      contentHash: entryContentHash(row.title, row.content), titleChanged: body.title !== undefined && body.title !== entry.title,
+    })
     return row
   })
   if (!updated) {

@@ -10,7 +10,7 @@ import { svgForPdf } from '../../../server/pdf/svg'
 import { textRuns } from '../../../server/pdf/text'
 import { PDF_FONT_FAMILIES } from '../../../server/pdf/fonts'
 import { csvCell } from '../../../server/utils/auditFilters'
-import { pdfFontFilesFromNodeModules } from '../../support/pdfFonts'
+import { pdfFontFilesFromNodeModules, pdfFontLoaderFromNodeModules } from '../../support/pdfFonts'
 import { fixtureKey, signedBundle, type SignedBundle } from '../../support/signedRecords'
 
 const inflate = (data: Uint8Array) => inflateSync(data)
@@ -59,7 +59,7 @@ describe('record PDF', () => {
   let made: SignedBundle
   let pdf: Buffer
   beforeAll(async () => {
-    setupPdfFonts(pdfFontFilesFromNodeModules())
+    setupPdfFonts(pdfFontFilesFromNodeModules(), pdfFontLoaderFromNodeModules)
     made = await signedBundle({
       entryId: '3f0c7d1e-5b6a-4c2d-9e8f-0a1b2c3d4e5f', notebook: { id: 'n1', name: 'Infrared line surveys — cell B' }, title: 'Fixture record',
       author: { id: 'a1', name: 'Dr Amara Lindqvist', email: 'amara@example.test' }, authorKey: await fixtureKey(),
@@ -98,7 +98,7 @@ describe('record PDF', () => {
 
 describe('record PDF of a levels block in its level-table form', () => {
   it('prints the inputs and results in short, draws the chart, and carries every level in the bundle', async () => {
-    setupPdfFonts(pdfFontFilesFromNodeModules())
+    setupPdfFonts(pdfFontFilesFromNodeModules(), pdfFontLoaderFromNodeModules)
     const energies = Array.from({ length: 3000 }, (_, index) => index * 10)
     const levelTable = { energyUnit: 'cm^-1', energies, degeneracies: energies.map((_, index) => 1 + (index % 3)), labels: energies.map((_, index) => `level ${index + 1}`) }
     const made = await signedBundle({

@@ -10,7 +10,7 @@ import { verifyBundle } from '../../../shared/records'
 import { evaluate, listKinds } from '../../../shared/thermo'
 import { presentResult } from '../../../shared/present'
 import { renderRecordPdfBytes, setupPdfFonts } from '../../../server/pdf/render'
-import { pdfFontFilesFromNodeModules } from '../../support/pdfFonts'
+import { pdfFontFilesFromNodeModules, pdfFontLoaderFromNodeModules } from '../../support/pdfFonts'
 import { fixtureKey, signedBundle } from '../../support/signedRecords'
 
 const folder = mkdtempSync(join(tmpdir(), 'thermotome-pdf-'))
@@ -39,7 +39,7 @@ describe('record PDF of an entry with a block of every kind', () => {
   let text = ''
   let blocks: { kind: string, title: string, input: unknown }[] = []
   beforeAll(async () => {
-    setupPdfFonts(pdfFontFilesFromNodeModules())
+    setupPdfFonts(pdfFontFilesFromNodeModules(), pdfFontLoaderFromNodeModules)
     blocks = listKinds().map(kind => ({ kind: kind.kind, title: `${kind.title} (Kestrel Ridge check)`, input: kind.kind === 'vibration' ? vibrationInput : kind.exampleInput }))
     const made = await signedBundle({
       entryId: '7b2c1d0e-9f8a-4b7c-8d6e-5f4a3b2c1d0e', notebook: { id: 'n1', name: 'Kestrel Ridge — gas cell survey' }, title: 'Populations across the survey',
@@ -91,7 +91,7 @@ describe('record PDF of an entry with a block of every kind', () => {
 
 describe('record PDF audit table', () => {
   it('keeps 60-character names and 300-character reasons inside the A4 margins (word boxes from pdftotext -bbox)', async () => {
-    setupPdfFonts(pdfFontFilesFromNodeModules())
+    setupPdfFonts(pdfFontFilesFromNodeModules(), pdfFontLoaderFromNodeModules)
     const made = await signedBundle({
       entryId: '8c3d2e1f-0a9b-4c8d-9e7f-6a5b4c3d2e1f', notebook: { id: 'n1', name: 'Kestrel Ridge — audit layout' }, title: 'Audit layout check',
       author: { id: 'a1', name: 'Dr Amara Lindqvist', email: 'amara@example.test' }, authorKey: await fixtureKey(),
