@@ -137,6 +137,7 @@ export const auditCheckpoints = pgTable('audit_checkpoints', {
   lastSequence: bigint('last_sequence', { mode: 'number' }).notNull(),
   rootHash: text('root_hash').notNull(),
   signedAt: timestamp('signed_at', { withTimezone: true, mode: 'date' }).notNull(),
+  /** The records key's raw public key, base64 (the payload names its fingerprint). */
   recordsKey: text('records_key').notNull(),
   payload: text('payload').notNull(),
   signature: text('signature').notNull(),
