@@ -31,6 +31,10 @@ if [[ -z "${NUXT_SESSION_PASSWORD:-}" ]]; then
   export NUXT_SESSION_PASSWORD
 fi
 
+# The records key signs the published key list and the audit checkpoints; it lives in a file,
+# never in the database (THERMOTOME_RECORDS_KEY_FILE to keep it elsewhere).
+npx tsx scripts/records-key.ts
+
 say "Migrations and demo lab"
 npx tsx scripts/migrate.ts
 npx tsx scripts/seed.ts

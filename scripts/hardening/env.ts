@@ -9,6 +9,7 @@ import { createServer } from 'node:net'
 import { fileURLToPath } from 'node:url'
 import { applyMigrations } from '../../server/database/migrate'
 import { seedDemoLab } from '../../server/database/seed'
+import { ensureRecordsKey } from '../../server/utils/recordsKey'
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url))
 export const ARTIFACTS = `${ROOT}test-artifacts`
@@ -87,6 +88,7 @@ export class AppServer {
 
   async start() {
     this.expectingExit = false
+    ensureRecordsKey(`${DATA_DIR}/records-key.pem`)
     const child = spawn(process.execPath, ['.output/server/index.mjs'], {
       cwd: ROOT,
       env: {

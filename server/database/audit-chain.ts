@@ -1,29 +1,18 @@
 import { createHash } from 'node:crypto'
-import canonicalize from 'canonicalize'
+import { AUDIT_GENESIS_HASH, auditEventHashPayload } from '../../shared/records/anchor'
 import type { AuditEvent } from './schema'
 
 /** previousHash of the first event in the chain. */
-export const GENESIS_HASH = '0'.repeat(64)
+export const GENESIS_HASH = AUDIT_GENESIS_HASH
 
-/** The fields a row's hash covers, in the form that is hashed (RFC 8785 canonical JSON). */
+/**
+ * The fields a row's hash covers, in the form that is hashed (RFC 8785 canonical JSON). One
+ * definition (shared/records/anchor.ts), so an auditor re-hashes a bundle's events the same way.
+ */
 export function auditHashPayload(row: Omit<AuditEvent, 'sequence' | 'hash'>): string {
-  const payload = {
-    occurredAt: row.occurredAt.toISOString(),
-    actorId: row.actorId ?? null,
-    actorEmail: row.actorEmail ?? null,
-    action: row.action,
-    subjectType: row.subjectType ?? null,
-    subjectId: row.subjectId ?? null,
-    details: row.details ?? {},
-    previousHash: row.previousHash,
-  }
-  const text = canonicalize(payload)
-  if (text === undefined)
-    throw new Error('audit event cannot be canonicalised')
-  return text
+  return auditEventHashPayload({ ...row, occurredAt: row.occurredAt.toISOString() })
 }
 
 export function auditRowHash(row: Omit<AuditEvent, 'sequence' | 'hash'>): string {
   return createHash('sha256').update(auditHashPayload(row), 'utf8').digest('hex')
 }
-

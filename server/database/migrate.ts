@@ -14,7 +14,7 @@ export const DEFAULT_APP_ROLE = 'thermotome_app'
  * owner too. (signing_keys stays updatable for retiring and confirming a key, which its guard
  * trigger allows and nothing else; it cannot be deleted.) A new frozen table goes here.
  */
-export const FROZEN_TABLES = ['audit_events', 'entry_versions', 'signatures'] as const
+export const FROZEN_TABLES = ['audit_events', 'audit_checkpoints', 'entry_versions', 'signatures'] as const
 const KEPT_FOREVER = ['signing_keys'] as const
 
 /**

@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm'
 import {
+  bigint,
   bigserial,
   boolean,
   index,
@@ -125,6 +126,24 @@ export const auditEvents = pgTable('audit_events', {
 ])
 
 /**
+ * Signed tree heads of the audit log (RFC 9162 §2.1): the Merkle root of its first `treeSize`
+ * events, signed with the records key (kept outside the database). `payload` and `signature`
+ * are the records-key document as published; frozen like the log itself.
+ */
+export const auditCheckpoints = pgTable('audit_checkpoints', {
+  id: bigserial('id', { mode: 'number' }).primaryKey(),
+  treeSize: integer('tree_size').notNull(),
+  /** audit_events.sequence of the last event covered. */
+  lastSequence: bigint('last_sequence', { mode: 'number' }).notNull(),
+  rootHash: text('root_hash').notNull(),
+  signedAt: timestamp('signed_at', { withTimezone: true, mode: 'date' }).notNull(),
+  /** The records key's raw public key, base64 (the payload names its fingerprint). */
+  recordsKey: text('records_key').notNull(),
+  payload: text('payload').notNull(),
+  signature: text('signature').notNull(),
+}, table => [index('audit_checkpoints_size').on(table.treeSize)])
+
+/**
  * Failed sign-ins per key (e-mail and client address), kept in the database so that
  * throttling holds across stateless app servers.
  */
@@ -179,6 +198,7 @@ export type Entry = typeof entries.$inferSelect
 export type AuditEvent = typeof auditEvents.$inferSelect
 export type EntryEditSession = typeof entryEditSessions.$inferSelect
 export type PersonPreferences = typeof personPreferences.$inferSelect
+export type AuditCheckpoint = typeof auditCheckpoints.$inferSelect
 export type Role = (typeof roleEnum.enumValues)[number]
 
 // ---------------------------------------------------------------------------------------

@@ -285,6 +285,7 @@ function signatureBlock(bundle: RecordBundle, verification: VerificationReport):
       [para('Meaning', { color: INK_SOFT }), para(MEANING_WORDS[statement.meaning] ?? statement.meaning)],
       [para('Statement', { color: INK_SOFT }), para(statement.statement)],
       [para('Key fingerprint', { color: INK_SOFT }), para(formatFingerprint(statement.keyFingerprint), { fontSize: 8 })],
+      ...confirmationRows(bundle, statement.keyFingerprint),
       [para('Checked at export', { color: INK_SOFT }), para(valid ? 'Signature valid' : `NOT VALID: ${(check?.problems ?? ['not checked']).join('; ')}`, { bold: true, color: valid ? '#1d5e3a' : '#9c3a25' })],
     ]
     return {
@@ -292,6 +293,39 @@ function signatureBlock(bundle: RecordBundle, verification: VerificationReport):
       layout: 'recordGrid', margin: [0, 0, 0, 8], unbreakable: true,
     }
   })
+}
+
+/** Beside a signature made with a replacement key: who confirmed the key, when, and why. */
+function confirmationRows(bundle: RecordBundle, fingerprint: string): Content[][] {
+  const confirmation = bundle.publicKeys.find(listing => listing.fingerprint === fingerprint)?.confirmation
+  if (!confirmation) return []
+  return [[
+    para('Replacement key', { color: INK_SOFT }),
+    para(`Confirmed by ${confirmation.confirmedBy.name} <${confirmation.confirmedBy.email}> on ${utcText(confirmation.confirmedAt)}: ${confirmation.reason}`),
+  ]]
+}
+
+/** The checkpoint that anchors the audit events: a signed tree head of the whole audit log. */
+function anchorBlock(bundle: RecordBundle): Content {
+  const document = bundle.context?.checkpoint
+  if (!document) return para('No checkpoint of the audit log anchors these events: they rest on the database alone.', { style: 'small', margin: [0, 0, 0, 10] })
+  let checkpoint: { treeSize?: number, rootHash?: string, signedAt?: string, recordsKey?: string } = {}
+  try { checkpoint = JSON.parse(document.payload) as typeof checkpoint }
+  catch { /* printed as unreadable below; verification reports it */ }
+  const rows: Content[][] = [
+    ['Events in the log', String(checkpoint.treeSize ?? 'unreadable')],
+    ['Merkle root (RFC 9162)', { text: checkpoint.rootHash ?? 'unreadable', fontSize: 7.5 }],
+    ['Signed at', checkpoint.signedAt ? utcText(checkpoint.signedAt) : 'unreadable'],
+    ['Records key', { text: checkpoint.recordsKey ? formatFingerprint(checkpoint.recordsKey) : 'unreadable', fontSize: 7.5 }],
+  ].map(([label, value]) => [para(label as string, { color: INK_SOFT }), typeof value === 'string' ? para(value) : value as Content])
+  return {
+    stack: [
+      para('Audit checkpoint', { bold: true, margin: [0, 0, 0, 2] }),
+      { table: { widths: [110, '*'], body: rows }, layout: 'recordGrid', fontSize: 8.5, margin: [0, 0, 0, 4] },
+      para('The events above are leaves of a Merkle tree over the whole audit log; this tree head is signed with the organisation\'s records key, and the bundle carries an inclusion proof for each event. Removing, inserting or changing any earlier audit event changes the root.', { style: 'small' }),
+    ],
+    margin: [0, 0, 0, 10],
+  }
 }
 
 function hashBlock(bundle: RecordBundle, fileName: string): Content {
@@ -415,6 +449,7 @@ export function recordDocumentDefinition(input: RecordPdfInput, bundleJson: stri
     attachmentsBlock(bundle),
     para('Audit events of this entry', { style: 'sectionTitle' }),
     auditBlock(auditEvents, entry.title),
+    anchorBlock(bundle),
   ]
 
   return {
@@ -438,7 +473,7 @@ export function recordDocumentDefinition(input: RecordPdfInput, bundleJson: stri
         src: `data:application/json;base64,${Buffer.from(bundleJson, 'utf8').toString('base64')}`,
         name: fileName,
         type: 'application/json',
-        description: 'Thermotome record bundle: canonical record, signing statements, Ed25519 signatures and public keys',
+        description: 'Thermotome record bundle: canonical record, signing statements, Ed25519 signatures, public keys and export context; this PDF is rendered from it alone',
         relationship: 'Source',
         creationDate: created,
         modifiedDate: created,

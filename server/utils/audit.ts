@@ -4,6 +4,7 @@ import { auditEvents, entryEditSessions, type AuditEvent, type EntryEditSession 
 import { auditRowHash, GENESIS_HASH } from '../database/audit-chain'
 import type { Database } from './db'
 import { READ_ONLY_RECORD_ACTIONS } from './recordBundle'
+import { compareWithCheckpoints, type CheckpointComparison } from './auditAnchor'
 
 const AUDIT_LOCK = 874202
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
@@ -95,11 +96,35 @@ export interface ChainReport {
   ok: boolean
   checked: number
   lastHash: string
-  problem: null | { sequence: number, message: string }
+  /** sequence is null for a problem found against a checkpoint (truncation, rewrite). */
+  problem: null | { sequence: number | null, message: string }
+  /** The newest checkpoint (signed tree head) the log was compared with, and how many checkpoints held. */
+  checkpoint: CheckpointComparison['newest']
+  checkpointsChecked: number
 }
 
-/** Walk the whole chain in order, recomputing each row's hash and its link to the row before. */
+/**
+ * Walk the whole chain in order, recomputing each row's hash and its link to the row before;
+ * then compare the log with every checkpoint signed with the records key (auditAnchor.ts), which
+ * reveals truncation and rewrites that leave every link intact.
+ */
 export async function verifyAuditChain(database: Database, batchSize = 5000): Promise<ChainReport> {
+  const walked = await walkAuditChain(database, batchSize)
+  if (!walked.report.ok) return walked.report
+  const anchored = await compareWithCheckpoints(database, walked.hashes)
+  return {
+    ...walked.report,
+    ok: anchored.problem === null,
+    problem: anchored.problem === null ? null : { sequence: null, message: anchored.problem },
+    checkpoint: anchored.newest,
+    checkpointsChecked: anchored.checked,
+  }
+}
+
+async function walkAuditChain(database: Database, batchSize: number): Promise<{ report: ChainReport, hashes: string[] }> {
+  const hashes: string[] = []
+  const broken = (checked: number, lastHash: string, sequence: number, message: string) =>
+    ({ report: { ok: false, checked, lastHash, problem: { sequence, message }, checkpoint: null, checkpointsChecked: 0 }, hashes })
   let previousHash = GENESIS_HASH
   let after = 0
   let checked = 0
@@ -107,13 +132,12 @@ export async function verifyAuditChain(database: Database, batchSize = 5000): Pr
     const rows = await database.select().from(auditEvents)
       .where(gt(auditEvents.sequence, after)).orderBy(asc(auditEvents.sequence)).limit(batchSize)
     for (const row of rows) {
-      if (row.previousHash !== previousHash) {
-        return { ok: false, checked, lastHash: previousHash, problem: { sequence: row.sequence, message: `event ${row.sequence} does not link to the event before it (a row was removed, inserted or reordered)` } }
-      }
+      if (row.previousHash !== previousHash)
+        return broken(checked, previousHash, row.sequence, `event ${row.sequence} does not link to the event before it (a row was removed, inserted or reordered)`)
       const { sequence: _sequence, hash, ...rest } = row
-      if (auditRowHash(rest) !== hash) {
-        return { ok: false, checked, lastHash: previousHash, problem: { sequence: row.sequence, message: `event ${row.sequence} was changed after it was written: its contents no longer match its hash` } }
-      }
+      if (auditRowHash(rest) !== hash)
+        return broken(checked, previousHash, row.sequence, `event ${row.sequence} was changed after it was written: its contents no longer match its hash`)
+      hashes.push(hash)
       previousHash = hash
       checked++
       after = row.sequence
@@ -121,5 +145,5 @@ export async function verifyAuditChain(database: Database, batchSize = 5000): Pr
     if (rows.length < batchSize)
       break
   }
-  return { ok: true, checked, lastHash: previousHash, problem: null }
+  return { report: { ok: true, checked, lastHash: previousHash, problem: null, checkpoint: null, checkpointsChecked: 0 }, hashes }
 }

@@ -1,7 +1,7 @@
-import { verifyBundle } from '#shared/records'
-import { ed25519Verify } from './ed25519'
+import type { RecordBundle } from '#shared/records'
+import { pdfBindingProblem, renderBoundPdf } from '../pdf/bound'
 import { ATKINSON_FILES, NOTO_FILES, type PdfFontFiles } from '../pdf/fonts'
-import { pdfFontsReady, renderRecordPdfBytes, setupPdfFonts } from '../pdf/render'
+import { pdfFontsReady, setupPdfFonts } from '../pdf/render'
 import type { ExportRecord } from './recordBundle'
 
 let loading: Promise<void> | null = null
@@ -27,11 +27,16 @@ async function readFontAsset(base: string, name: string): Promise<Uint8Array> {
   return data instanceof Uint8Array ? data : new Uint8Array(data as ArrayBuffer)
 }
 
-/** The record's PDF (same record, same bytes), checked again with verifyBundle at export. */
-export async function renderRecordPdf(record: ExportRecord): Promise<Buffer> {
+/** The record's PDF, rendered from its bundle alone (server/pdf/bound.ts), checked again with verifyBundle at export. */
+export async function renderRecordPdf(record: Pick<ExportRecord, 'bundle'>): Promise<Buffer> {
   await loadPdfFonts()
-  const verification = await verifyBundle(record.bundle, { verifyEd25519: ed25519Verify })
-  return await renderRecordPdfBytes({ bundle: record.bundle, state: record.state, auditEvents: record.auditEvents, verification })
+  return await renderBoundPdf(record.bundle)
+}
+
+/** Null when the uploaded PDF is exactly the PDF its bundle renders to, else why not. */
+export async function recordPdfBindingProblem(pdf: Uint8Array, bundle: RecordBundle): Promise<string | null> {
+  await loadPdfFonts()
+  return await pdfBindingProblem(pdf, bundle)
 }
 
 /** "thermotome-record-<entry>-v<N>" without an extension. */

@@ -1,7 +1,8 @@
-import { and, asc, desc, eq } from 'drizzle-orm'
+import { and, desc, eq } from 'drizzle-orm'
 import type { RecordBundle } from '#shared/records'
 import type { VersionStatus } from '#shared/records/lifecycle'
-import { auditEvents, entries, entryVersions, people, type Entry } from '../database/schema'
+import { entries, entryVersions, type Entry } from '../database/schema'
+import { provenEntryEvents } from './auditAnchor'
 import type { PdfAuditEvent } from '../pdf/document'
 import type { SessionPerson } from './auth'
 import { signingBundleOf } from './recordVerify'
@@ -34,23 +35,21 @@ export async function loadBundleForExport(entryId: string, version?: number): Pr
     .orderBy(desc(entryVersions.version)).limit(1)
   if (!frozen) return null
   // The same bundle the signing routes serve (GET /api/records/:id/bundle): one builder, so an
-  // export and a bundle download of one version are the same bytes.
-  const bundle = await signingBundleOf(database, frozen)
-  const events = await database.select({
-    sequence: auditEvents.sequence, occurredAt: auditEvents.occurredAt, action: auditEvents.action,
-    actorEmail: auditEvents.actorEmail, actorName: people.name, details: auditEvents.details,
-  }).from(auditEvents).leftJoin(people, eq(people.id, auditEvents.actorId)).where(and(eq(auditEvents.subjectType, 'entry'), eq(auditEvents.subjectId, entryId)))
-    .orderBy(asc(auditEvents.sequence)).limit(1000)
+  // export and a bundle download of one version are the same bytes. The export context (state,
+  // the entry's audit events with inclusion proofs, the checkpoint anchoring them) makes the
+  // PDF a function of the bundle alone, so a verifier can render it again and compare bytes.
+  const signed = await signingBundleOf(database, frozen)
+  const state = lifecycleVersionStatus(frozen.version, entry)
+  const { events, checkpoint } = await provenEntryEvents(database, entryId, READ_ONLY_RECORD_ACTIONS)
+  const bundle: RecordBundle = { ...signed, context: { state, auditEvents: events, checkpoint } }
   return {
     bundle,
     entry,
     version: frozen.version,
-    state: lifecycleVersionStatus(frozen.version, entry),
+    state,
     // The signing route stores a signature only when its statement names the person signing.
     signerIds: [...new Set(bundle.signatures.map(signature => signature.statement.signer.id))],
-    auditEvents: events
-      .filter(event => !READ_ONLY_RECORD_ACTIONS.includes(event.action))
-      .map(event => ({ ...event, occurredAt: event.occurredAt.toISOString() })),
+    auditEvents: events,
   }
 }
 

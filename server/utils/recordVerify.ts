@@ -7,11 +7,13 @@ import {
   statementHash,
   verifyBundle,
 } from '#shared/records'
-import type { RecordBundle, RecordDocument, SignatureEnvelope } from '#shared/records'
+import type { RecordBundle, RecordDocument, RegisteredKey, SignatureEnvelope } from '#shared/records'
 import type { RecordComparison } from '#shared/records/recheck'
 import { attachments, auditEvents, notebooks, people, type Entry, type EntryVersion } from '../database/schema'
 import type { Database } from './db'
 import { ed25519Verify } from './ed25519'
+import { databaseKeyRegistry, registeredKeys } from './keyRegistry'
+import { loadRecordsKey } from './recordsKey'
 
 export interface SignatureVerification {
   id: string
@@ -21,6 +23,8 @@ export interface SignatureVerification {
   keyFingerprint: string
   ok: boolean
   problems: string[]
+  /** For a key that replaced an earlier one: who confirmed it, when and why. */
+  confirmation: { confirmedAt: string, confirmedBy: { id: string, name: string, email: string }, reason: string } | null
 }
 
 export interface RecordVerification {
@@ -33,7 +37,9 @@ export interface RecordVerification {
   /** The calculations recomputed on the server within the record tolerance. */
   calculations: RecordComparison | null
   signatures: SignatureVerification[]
-  auditChain: { ok: boolean, checked: number, problem: string | null }
+  auditChain: { ok: boolean, checked: number, problem: string | null, checkpoint: { treeSize: number, rootHash: string, signedAt: string } | null }
+  /** Where the keys were checked. */
+  registry: { checked: boolean, source: string | null }
   problems: string[]
   /** What was not checked and why. */
   notes: string[]
@@ -66,7 +72,9 @@ export async function signingVerifyRecord(database: Database, entry: Entry, vers
   catch (error) {
     recordProblems.push(`the stored record could not be read as a bundle: ${error instanceof Error ? error.message : String(error)}`)
   }
-  const report = await verifyBundle(bundle, { verifyEd25519: ed25519Verify })
+  // The trust anchor: every key checked against the registry (registered to the signer, able to sign then).
+  const registry = await databaseKeyRegistry(database, bundle?.signatures.map(envelope => envelope.statement.keyFingerprint) ?? [])
+  const report = await verifyBundle(bundle, { verifyEd25519: ed25519Verify, registry, trustedRecordsKey: loadRecordsKey()?.fingerprint })
 
   // The record hash the bundle carries is computed from the stored record: it must be the hash
   // stored (and signed) for this version.
@@ -135,9 +143,10 @@ export async function signingVerifyRecord(database: Database, entry: Entry, vers
     if (!audited.some(event => event.signatureId === signature.id && event.action === expectedAction))
       problems.push(`the audit trail has no ${expectedAction} event for it`)
     const signer = signers.find(p => p.id === signature.signerId) ?? { id: signature.signerId, name: 'unknown', email: '' }
+    const registered = fromBundle?.registeredKey ?? null
     return {
       id: signature.id, meaning: signature.meaning, signer, signedAt: signature.signedAt.toISOString(),
-      keyFingerprint: key.fingerprint, ok: problems.length === 0, problems,
+      keyFingerprint: key.fingerprint, ok: problems.length === 0, problems, confirmation: confirmationOf(registered),
     }
   })
   const storedHashes = await Promise.all(rows.map(async ({ signature }) => {
@@ -171,10 +180,17 @@ export async function signingVerifyRecord(database: Database, entry: Entry, vers
     record: { ok: allRecordProblems.length === 0, problems: allRecordProblems },
     calculations: report.calculations,
     signatures: checks,
-    auditChain: { ok: chain.ok, checked: chain.checked, problem: chain.problem?.message ?? null },
+    auditChain: { ok: chain.ok, checked: chain.checked, problem: chain.problem?.message ?? null, checkpoint: chain.checkpoint },
+    registry: report.registry,
     problems,
     notes: report.notes,
   }
+}
+
+/** Who confirmed a replacement key, for showing beside its signatures; null for a first key. */
+export function confirmationOf(key: RegisteredKey | null): SignatureVerification['confirmation'] {
+  if (!key?.replacement || key.confirmedAt === null || key.confirmedBy === null) return null
+  return { confirmedAt: key.confirmedAt, confirmedBy: key.confirmedBy, reason: key.confirmationReason ?? '' }
 }
 
 /** The RecordBundle of a frozen version: the signed record, its hash, signatures and their public keys. */
@@ -183,6 +199,7 @@ export async function signingBundleOf(database: Database, version: EntryVersion)
   const ownerIds = [...new Set(rows.map(r => r.key.personId))]
   const owners = ownerIds.length ? await database.select({ id: people.id, name: people.name, email: people.email }).from(people).where(inArray(people.id, ownerIds)) : []
   const keys = new Map(rows.map(r => [r.key.id, r.key]))
+  const registered = await registeredKeys(database, [...keys.values()].map(key => key.fingerprint))
   const signaturesOut: SignatureEnvelope[] = rows.map(({ signature, key }) => signingEnvelopeOf(signature, key.publicKey))
   return buildBundle({
     record: version.record as RecordDocument,
@@ -191,10 +208,12 @@ export async function signingBundleOf(database: Database, version: EntryVersion)
       // The owner as the key's signatures name them, so an offline check can match signer and owner.
       const named = rows.find(r => r.key.id === key.id)!.signature.statement as { signer?: { id: string, name: string, email: string } }
       const owner = owners.find(p => p.id === key.personId)!
+      const confirmation = confirmationOf(registered.find(entry => entry.fingerprint === key.fingerprint) ?? null)
       return {
         fingerprint: key.fingerprint, publicKey: key.publicKey,
         owner: named.signer?.id === owner.id ? named.signer : owner,
         createdAt: key.createdAt.toISOString(), retiredAt: key.retiredAt?.toISOString() ?? null,
+        ...(confirmation ? { confirmation } : {}),
       }
     }),
   })

@@ -31,3 +31,9 @@ export {
   recheckRecord, recheckSummary, relativeDifference, warningsAgree,
 } from './recheck'
 export type { BlockDifference, DescribeQuantity, QuantityDifference, RecheckAudience, RecheckSummary, RecordComparison, ResultPath } from './recheck'
+export {
+  AUDIT_GENESIS_HASH, CHECKPOINT_SCHEMA, CheckpointSchema, KEY_LIST_SCHEMA, KeyListSchema, RegisteredKeySchema,
+  auditEventHashPayload, checkAuditEvents, keyCouldSignAt, openRecordsKeyDocument, recordsKeySignedBytes, registryCheck, registryOfKeyList,
+  webCryptoSha256,
+} from './anchor'
+export type { AuditEventFields, AuditProofReport, Checkpoint, KeyList, KeyRegistry, OpenedDocument, RegisteredKey } from './anchor'

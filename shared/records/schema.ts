@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { base64ToBytes } from './encoding'
+import { VERSION_STATUSES } from './lifecycle'
 
 // Shapes of the signed record (DESIGN.md, "The signed record"). Objects are strict: an
 // unexpected property in something that is hashed or signed is named as a problem, never
@@ -25,7 +26,7 @@ export const Sha256HexSchema = z
   .regex(/^[0-9a-f]{64}$/, 'expected a SHA-256 as 64 lower-case hexadecimal digits')
 
 /** Base64 (RFC 4648 §4) that decodes to exactly `length` bytes. */
-function base64OfLength(length: number, what: string) {
+export function base64OfLength(length: number, what: string) {
   return z.string().refine((value) => {
     try {
       return base64ToBytes(value).length === length
@@ -35,7 +36,7 @@ function base64OfLength(length: number, what: string) {
   }, `expected ${what}: ${length} bytes in standard padded base64`)
 }
 
-const TimestampSchema = z.iso.datetime({
+export const TimestampSchema = z.iso.datetime({
   error: 'expected an ISO 8601 UTC time such as 2025-03-01T12:00:00.000Z',
 })
 
@@ -123,8 +124,58 @@ export const PublicKeyListingSchema = z.strictObject({
   owner: PersonSchema,
   createdAt: TimestampSchema,
   retiredAt: TimestampSchema.nullable(),
+  /**
+   * For a key that replaced an earlier one: who confirmed it, when and why (shown beside every
+   * signature it made). Informative: verification takes these facts from the key registry.
+   */
+  confirmation: z.strictObject({ confirmedAt: TimestampSchema, confirmedBy: PersonSchema, reason: z.string() }).optional(),
 })
 export type PublicKeyListing = z.infer<typeof PublicKeyListingSchema>
+
+/**
+ * A document signed with the organisation's records key (shared/records/anchor.ts): the payload
+ * is RFC 8785 canonical JSON text, the signature Ed25519 over its UTF-8.
+ */
+export const RecordsKeyDocumentSchema = z.strictObject({
+  payload: z.string().min(2),
+  signature: base64OfLength(64, 'an Ed25519 signature'),
+  recordsKey: base64OfLength(32, 'an Ed25519 public key'),
+})
+export type RecordsKeyDocument = z.infer<typeof RecordsKeyDocumentSchema>
+
+/** An audit event of the record as exported, with its RFC 9162 inclusion proof in the bundle's checkpoint. */
+export const ProvenAuditEventSchema = z.strictObject({
+  sequence: z.int().positive(),
+  occurredAt: TimestampSchema,
+  actorId: z.string().nullable(),
+  actorEmail: z.string().nullable(),
+  /** The actor's name when exported (not covered by the event's hash). */
+  actorName: z.string().nullable(),
+  action: z.string(),
+  subjectType: z.string().nullable(),
+  subjectId: z.string().nullable(),
+  details: JsonObjectSchema,
+  previousHash: Sha256HexSchema,
+  hash: Sha256HexSchema,
+  /** Position in the audit log from 0: the Merkle leaf index. */
+  leafIndex: z.int().nonnegative(),
+  /** Inclusion proof (hex node hashes) of this event in the checkpoint's tree; empty when not anchored. */
+  proof: z.array(Sha256HexSchema),
+})
+export type ProvenAuditEvent = z.infer<typeof ProvenAuditEventSchema>
+
+/**
+ * What an export adds to the signed parts, so that the PDF is a function of the bundle alone:
+ * the version's state, the entry's audit events with their proofs, and the newest checkpoint
+ * of the audit log signed with the records key. Not covered by any person's signature; the
+ * audit events are anchored by the checkpoint.
+ */
+export const ExportContextSchema = z.strictObject({
+  state: z.enum(VERSION_STATUSES),
+  auditEvents: z.array(ProvenAuditEventSchema),
+  checkpoint: RecordsKeyDocumentSchema.nullable(),
+})
+export type ExportContext = z.infer<typeof ExportContextSchema>
 
 export const RecordBundleSchema = z.strictObject({
   schema: z.literal(BUNDLE_SCHEMA),
@@ -132,6 +183,7 @@ export const RecordBundleSchema = z.strictObject({
   recordHash: Sha256HexSchema,
   signatures: z.array(SignatureEnvelopeSchema),
   publicKeys: z.array(PublicKeyListingSchema),
+  context: ExportContextSchema.optional(),
 })
 export type RecordBundle = z.infer<typeof RecordBundleSchema>
 

@@ -6,6 +6,7 @@ import type { Person, RecordBundle, SignatureEnvelope, SigningMeaning } from './
 import { ed25519StrictProblem, strictEd25519, strictEd25519Verify, type Ed25519Verify } from './ed25519'
 import { recheckRecord, type DescribeQuantity, type RecordComparison } from './recheck'
 import { verifySignature } from './signing'
+import { checkAuditEvents, registryCheck, type AuditProofReport, type KeyRegistry, type RegisteredKey } from './anchor'
 
 export interface SignatureCheck {
   /** Position in bundle.signatures, from 0. */
@@ -16,6 +17,8 @@ export interface SignatureCheck {
   keyFingerprint: string
   ok: boolean
   problems: string[]
+  /** The key as the registry knows it (owner, lifetime, who confirmed a replacement); null when no registry was given or the key is not in it. */
+  registeredKey: RegisteredKey | null
 }
 
 export interface VerificationReport {
@@ -32,6 +35,13 @@ export interface VerificationReport {
   problems: string[]
   /** What was not checked and why (a block recorded with another engine version is not recomputed). */
   notes: string[]
+  /**
+   * Whether every signature's key was checked against a key registry (the trust anchor). Without
+   * one, `ok` means only that the bundle is self-consistent: anyone can make keys in any name.
+   */
+  registry: { checked: boolean, source: string | null }
+  /** The audit events the bundle carries, checked against its signed checkpoint; null when it carries none. */
+  audit: AuditProofReport | null
 }
 
 export interface VerifyOptions {
@@ -39,6 +49,13 @@ export interface VerifyOptions {
   verifyEd25519?: Ed25519Verify
   /** Names a result quantity in words for the calculation differences. */
   describeQuantity?: DescribeQuantity
+  /**
+   * The key registry to check every signature's key against (the database on the server, a
+   * verified key list offline): registered to the named signer and able to sign at that time.
+   */
+  registry?: KeyRegistry
+  /** The organisation's records key (fingerprint): the bundle's audit checkpoint must be signed with it. */
+  trustedRecordsKey?: string
 }
 
 const time = (iso: string) => Date.parse(iso)
@@ -60,6 +77,8 @@ export async function verifyBundle(bundle: unknown, options: VerifyOptions = {})
       calculations: null,
       problems: [`verification could not finish: ${error instanceof Error ? error.message : String(error)}`],
       notes: [],
+      registry: { checked: false, source: null },
+      audit: null,
     }
   }
 }
@@ -67,7 +86,7 @@ export async function verifyBundle(bundle: unknown, options: VerifyOptions = {})
 async function verifyParsedBundle(input: unknown, options: VerifyOptions): Promise<VerificationReport> {
   const verify = options.verifyEd25519 ?? strictEd25519Verify
   const parsed = RecordBundleSchema.safeParse(input)
-  if (!parsed.success) return await shapeFailure(input, describeIssues(parsed.error.issues, 'bundle'))
+  if (!parsed.success) return await shapeFailure(input, describeIssues(parsed.error.issues, 'bundle'), options)
   const bundle = parsed.data
 
   const problems: string[] = []
@@ -89,6 +108,17 @@ async function verifyParsedBundle(input: unknown, options: VerifyOptions): Promi
 
   // First pass: what each signature proves on its own; the second pass relates witnesses to authors.
   const checks = await Promise.all(bundle.signatures.map((envelope, index) => checkSignature(bundle, envelope, index, computed, verify)))
+  const notes: string[] = []
+  // The trust anchor: each key registered to the person its statement names, able to sign then.
+  if (options.registry) {
+    for (const check of checks) {
+      const envelope = bundle.signatures[check.index]!
+      const anchored = registryCheck(options.registry, envelope.statement, envelope.publicKey)
+      check.registeredKey = anchored.key
+      check.problems.push(...anchored.problems)
+      notes.push(...anchored.notes)
+    }
+  }
   const hashes = await Promise.all(bundle.signatures.map((envelope) => statementHash(envelope.statement)))
   const standsAlone = checks.map((check) => check.problems.length === 0)
   for (const check of checks) checkCountersignature(bundle, check, hashes, standsAlone)
@@ -101,11 +131,26 @@ async function verifyParsedBundle(input: unknown, options: VerifyOptions): Promi
 
   // The numbers: recomputed here and compared within the record tolerance (shared/records/recheck.ts).
   const calculations = recheckRecord(bundle.record, options.describeQuantity)
-  const notes: string[] = []
   for (const block of calculations.blocks) {
     if (block.what === 'engine') notes.push(block.message)
     else problems.push(`calculations: ${block.message}`)
   }
+
+  // The audit events an export carries, anchored by a checkpoint signed with the records key.
+  let audit: AuditProofReport | null = null
+  if (bundle.context) {
+    const signatureIds = bundle.signatures.flatMap(envelope => envelope.id === undefined ? [] : [envelope.id])
+    audit = await checkAuditEvents(bundle.context.auditEvents, bundle.context.checkpoint, verify, options.trustedRecordsKey, signatureIds)
+    for (const event of bundle.context.auditEvents) {
+      if (event.subjectType !== 'entry' || event.subjectId !== bundle.record.entry.id)
+        audit.problems.push(`audit event ${event.sequence} (${event.action}) is not an event of this entry`)
+    }
+    if (audit.checkpoint !== null && options.trustedRecordsKey === undefined)
+      audit.notes.push('the audit checkpoint is signed by the records key it names; give the organisation\'s records key to know it is theirs')
+    problems.push(...audit.problems.map(problem => `audit: ${problem}`))
+    notes.push(...audit.notes.map(note => `audit: ${note}`))
+  }
+  if (!options.registry) notes.push('signatures are self-consistent; keys not checked against a registry')
   return {
     ok: problems.length === 0,
     recordHash: { stated: bundle.recordHash, computed, ok: hashOk },
@@ -113,10 +158,12 @@ async function verifyParsedBundle(input: unknown, options: VerifyOptions): Promi
     calculations,
     problems,
     notes,
+    registry: { checked: options.registry !== undefined, source: options.registry?.source ?? null },
+    audit,
   }
 }
 
-async function shapeFailure(input: unknown, problems: string[]): Promise<VerificationReport> {
+async function shapeFailure(input: unknown, problems: string[], options: VerifyOptions): Promise<VerificationReport> {
   const candidate = typeof input === 'object' && input !== null ? (input as Record<string, unknown>) : {}
   const stated = typeof candidate.recordHash === 'string' ? candidate.recordHash : null
   // Still report the hash of a well-formed record, which helps tell a damaged wrapper from a damaged record.
@@ -129,6 +176,8 @@ async function shapeFailure(input: unknown, problems: string[]): Promise<Verific
     calculations: null,
     problems: ['this is not a valid Thermotome record bundle', ...problems],
     notes: [],
+    registry: { checked: options.registry !== undefined, source: options.registry?.source ?? null },
+    audit: null,
   }
 }
 
@@ -189,6 +238,7 @@ async function checkSignature(
     keyFingerprint: statement.keyFingerprint,
     ok: false,
     problems,
+    registeredKey: null,
   }
 }
 

@@ -1,4 +1,5 @@
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
+import { ensureRecordsKey } from '../../server/utils/recordsKey'
 import { existsSync, mkdirSync, createWriteStream, rmSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import pg from 'pg'
@@ -98,6 +99,8 @@ export default async function setup(project: TestProject) {
     execFileSync('npx', ['nuxi', 'build'], { cwd: root, stdio: ['ignore', 'ignore', 'inherit'] })
 
   const dataDir = `${root}/test-artifacts/data`
+  // The server finds it at $THERMOTOME_DATA_DIR/records-key.pem, as npm start does.
+  ensureRecordsKey(`${dataDir}/records-key.pem`)
   rmSync(`${dataDir}/mail`, { recursive: true, force: true })
   const mail = await startMailCatcher(dataDir)
 
