@@ -151,6 +151,10 @@ const routes: RouteCase[] = [
   { name: 'v1 entries of a notebook without a token', method: 'GET', path: () => `/api/v1/notebooks/${ids.infrared}/entries`, expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
   { name: 'v1 create an entry without a token', method: 'POST', path: () => `/api/v1/notebooks/${ids.infrared}/entries`, body: () => ({ title: 'Permission check' }), expect: { anonymous: 401, amara: 401, priya: 401, felix: 401, hana: 401 } },
   { name: 'v1 OpenAPI description', method: 'GET', path: () => '/api/v1/openapi.json', expect: { anonymous: 200, amara: 200, priya: 200, felix: 200, hana: 200 } },
+  { name: 'signed audit checkpoints', method: 'GET', path: () => '/api/audit/checkpoints', expect: recordsOnly },
+  { name: 'sign an audit checkpoint now', method: 'POST', path: () => '/api/audit/checkpoints', expect: { anonymous: 401, amara: 403, priya: 403, felix: 201, hana: 403 } },
+  { name: 'consistency proof without sizes', method: 'GET', path: () => '/api/audit/consistency', expect: { anonymous: 401, amara: 403, priya: 403, felix: 400, hana: 400 } },
+  { name: 'the signed key list', method: 'GET', path: () => '/api/keys/list', expect: anyoneSignedIn },
   // A sign-in without credentials names the fields, signed in or not.
   { name: 'sign in without credentials', method: 'POST', path: () => '/api/auth/login', body: () => ({}), expect: { anonymous: 400, amara: 400, priya: 400, felix: 400, hana: 400 } },
   // Last: signing out ends every session of the person, so no row may come after it.
