@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { bytesToBase64, generateSigningKeyPair, recordHash, sealSecretKey } from '../../shared/records'
 import type { RecordDocument } from '../../shared/records'
 import { DEMO_PASSWORD } from '../../shared/demo'
-import { ARTIFACTS, launchBrowser } from '../support/browser'
+import { ARTIFACTS, launchBrowser, signInPage } from '../support/browser'
 import { as, demoPerson, type Client } from '../support/http'
 import { KIND_INPUTS, documentOf, sampleInputs } from '../support/generatedInputs'
 
@@ -39,15 +39,7 @@ async function makeKey(client: Client) {
     expect((await felix.post(`/api/keys/${reply.body.key.id}/confirm`, { reason: 'Confirmed for the record-tolerance browser test.' })).status).toBe(200)
 }
 
-async function signIn(context: BrowserContext, who: 'amara' | 'priya'): Promise<Page> {
-  const page = await context.newPage()
-  await page.goto(`${baseURL()}/signin`)
-  await page.getByLabel('E-mail').fill(demoPerson(who).email)
-  await page.getByLabel('Password').fill(DEMO_PASSWORD)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.getByRole('heading', { name: 'Notebooks', level: 1 }).waitFor()
-  return page
-}
+const signIn = signInPage
 
 async function newEntry(title: string, blocks: { kind: string, input: unknown, title: string }[], seed: number): Promise<string> {
   const reply = await amara.post(`/api/notebooks/${notebookId}/entries`, { title, content: documentOf(blocks, seed) })

@@ -1,7 +1,7 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { DEMO_PASSWORD } from '../../shared/demo'
-import { ARTIFACTS, launchBrowser } from '../support/browser'
+import { ARTIFACTS, launchBrowser, signInPage } from '../support/browser'
 import { as, demoPerson } from '../support/http'
 
 let browser: Browser
@@ -11,15 +11,7 @@ afterAll(async () => { await browser?.close() })
 const baseURL = () => inject('baseURL')
 const PASSPHRASE = 'copper kettle under northern rain'
 
-async function signIn(context: BrowserContext, who: 'amara' | 'priya'): Promise<Page> {
-  const page = await context.newPage()
-  await page.goto(`${baseURL()}/signin`)
-  await page.getByLabel('E-mail').fill(demoPerson(who).email)
-  await page.getByLabel('Password').fill(DEMO_PASSWORD)
-  await page.getByRole('button', { name: 'Sign in' }).click()
-  await page.getByRole('heading', { name: 'Notebooks', level: 1 }).waitFor()
-  return page
-}
+const signIn = signInPage
 
 async function makeKey(page: Page, shot: string, who: 'amara' | 'priya') {
   await page.getByRole('link', { name: 'Signing keys' }).click()
